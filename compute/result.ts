@@ -69,4 +69,6 @@ export interface StatementResult {
   /** When the result is a search. */
   readonly events?: readonly EventRecord[];
   readonly plots?: readonly PlotSpec[];
+  /** Warnings shown as diagnostics on the statement (e.g. ephemeris accuracy, `OB501`). */
+  readonly warnings?: ReadonlyArray<{ readonly code: string; readonly message: string }>;
 }

@@ -1,0 +1,106 @@
+/**
+ * The one block extractor, used by the CLI, the extension and the preview alike:
+ * finds `orbit` fences with markdown-it's block parser (so fences inside lists, after
+ * indented code, in HTML blocks etc. follow CommonMark exactly) and the generated
+ * result region that belongs to each.
+ */
+import MarkdownIt from 'markdown-it';
+import type { Block } from './ast.js';
+
+const md = new MarkdownIt('commonmark');
+
+/** Region markers. The begin line carries the input digest and a digest of the body as written. */
+export const REGION_BEGIN_PREFIX = '<!-- orbit results';
+export const REGION_END = '<!-- orbit results end -->';
+const BEGIN_RE = /^<!-- orbit results · inputs ([0-9a-f]{8,}) · body ([0-9a-f]{8,}) · (.*)-->\s*$/;
+const END_RE = /^<!-- orbit results end -->\s*$/;
+
+/** A generated region found in the note. Lines are 0-based document lines. */
+export interface Region {
+  readonly beginLine: number;
+  /** Line of the end marker (or undefined when the end marker is missing). */
+  readonly endLine: number | undefined;
+  readonly inputsDigest: string;
+  readonly bodyDigest: string;
+  /** Text between the marker lines, joined with `\n`. */
+  readonly body: string;
+}
+
+export interface ExtractedBlock extends Block {
+  /** Columns the fence is indented by (content columns shift by this much). */
+  readonly indent: number;
+  readonly region?: Region;
+  /** A begin marker without an end marker, or other region damage. */
+  readonly regionProblem?: string;
+}
+
+/** Split keeping the information needed to rebuild text byte for byte. */
+export function splitLines(text: string): string[] {
+  return text.split(/\r?\n/);
+}
+
+/** Does an info string name an orbit block? Returns the block name ('' if none) or undefined. */
+export function orbitInfo(info: string): string | undefined {
+  const m = /^orbit(?:\s+(\S+))?\s*$/.exec(info.trim());
+  if (!m) return undefined;
+  return m[1] ?? '';
+}
+
+/** Find every `orbit` block of a note, in document order, with its result region. */
+export function extractBlocks(text: string): ExtractedBlock[] {
+  const tokens = md.parse(text, {});
+  const lines = splitLines(text);
+  const out: ExtractedBlock[] = [];
+  for (const t of tokens) {
+    if (t.type !== 'fence' || !t.map) continue;
+    const name = orbitInfo(t.info);
+    if (name === undefined) continue;
+    const [start, endExclusive] = t.map;
+    const fenceLineText = lines[start] ?? '';
+    const indent = fenceLineText.length - fenceLineText.trimStart().length;
+    // markdown-it's map ends after the closing fence; an unclosed fence runs to the end.
+    const lastLine = endExclusive - 1;
+    const closeText = (lines[lastLine] ?? '').trim();
+    const closed = lastLine > start && /^(`{3,}|~{3,})\s*$/.test(closeText) && closeText[0] === t.markup[0] && closeText.length >= t.markup.length;
+    const closeLine = closed ? lastLine : lastLine;
+    const content = t.content.replace(/\n$/, '');
+    const block: ExtractedBlock = {
+      ...(name !== '' ? { name } : {}),
+      fenceLine: start,
+      closeLine,
+      contentStartLine: start + 1,
+      content,
+      index: out.length,
+      indent,
+      ...(closed ? {} : { regionProblem: 'unclosed' }),
+    };
+    out.push(closed ? withRegion(block, lines) : block);
+  }
+  return out;
+}
+
+function withRegion(block: ExtractedBlock, lines: readonly string[]): ExtractedBlock {
+  // The region starts on the line right after the closing fence, or after one blank line.
+  let i = block.closeLine + 1;
+  if ((lines[i] ?? '').trim() === '' && (lines[i + 1] ?? '').startsWith(REGION_BEGIN_PREFIX)) i += 1;
+  const beginText = lines[i] ?? '';
+  if (!beginText.startsWith(REGION_BEGIN_PREFIX) || END_RE.test(beginText)) return block;
+  const m = BEGIN_RE.exec(beginText);
+  if (!m) return { ...block, regionProblem: `the results marker on line ${i + 1} is damaged; delete the region and write results again` };
+  let end: number | undefined;
+  for (let j = i + 1; j < lines.length; j++) {
+    const l = lines[j]!;
+    if (END_RE.test(l)) { end = j; break; }
+    if (l.startsWith(REGION_BEGIN_PREFIX) || /^(`{3,}|~{3,})\s*orbit\b/.test(l.trim())) break;
+  }
+  if (end === undefined) {
+    return { ...block, regionProblem: `the results region starting on line ${i + 1} has no end marker \`${REGION_END}\`` };
+  }
+  const body = lines.slice(i + 1, end).join('\n');
+  return { ...block, region: { beginLine: i, endLine: end, inputsDigest: m[1]!, bodyDigest: m[2]!, body } };
+}
+
+/** The begin marker line for given digests. */
+export function regionBeginLine(inputsDigest: string, bodyDigest: string): string {
+  return `${REGION_BEGIN_PREFIX} · inputs ${inputsDigest} · body ${bodyDigest} · generated from the block above; edit the block, not this -->`;
+}
