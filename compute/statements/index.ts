@@ -1,0 +1,32 @@
+/**
+ * The statement handlers, by keyword. `let`, `body`, `set` and `series` define names
+ * and are handled by the note evaluator itself; the rest are pure functions of their
+ * statement and the evaluation context.
+ */
+import type { Statement, StatementKind } from '../../language/ast.js';
+import type { EvalContext, Series } from '../context.js';
+import type { StatementResult } from '../result.js';
+import { evalDate } from './date.js';
+
+export type Handler<K extends StatementKind> =
+  (stmt: Extract<Statement, { kind: K }>, ctx: EvalContext) => StatementResult | Promise<StatementResult>;
+
+export type SeriesLoader =
+  (stmt: Extract<Statement, { kind: 'series' }>, ctx: EvalContext) => Promise<{ series: Series; result: StatementResult }>;
+
+export interface Handlers {
+  readonly date?: Handler<'date'>;
+  readonly synodic?: Handler<'synodic'>;
+  readonly ratio?: Handler<'ratio'>;
+  readonly relation?: Handler<'relation'>;
+  readonly conjunctions?: Handler<'conjunctions'>;
+  readonly oppositions?: Handler<'oppositions'>;
+  readonly alignment?: Handler<'alignment'>;
+  readonly barycentre?: Handler<'barycentre'>;
+  readonly periodogram?: Handler<'periodogram'>;
+  readonly series?: SeriesLoader;
+}
+
+export const HANDLERS: Handlers = {
+  date: evalDate,
+};
