@@ -120,7 +120,7 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
     const blocks = extractBlocks(text);
     const parsed = blocks.map((b) => {
       const p = parseBlock(b.content, b.contentStartLine);
-      return { block: b, statements: p.statements, diagnostics: shiftColumns(p.diagnostics, b.indent) };
+      return { block: b, statements: p.statements, failed: p.failed, diagnostics: shiftColumns(p.diagnostics, b.indent) };
     });
     const noteDiagnostics: Diagnostic[] = [];
     const settings = collectSettings(parsed.flatMap((p) => p.statements), noteDiagnostics);
@@ -135,7 +135,16 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
 
     for (const p of parsed) {
       const stmtEvals: StatementEvaluation[] = [];
+      // A definition that failed to parse still claims its name, so later uses say why they fail.
+      const failedByLine = [...p.failed].filter((f) => f.definedName !== undefined).sort((a, b) => a.range.start.line - b.range.start.line);
+      const claimFailedBefore = (line: number): void => {
+        while (failedByLine.length > 0 && failedByLine[0]!.range.start.line < line) {
+          const f = failedByLine.shift()!;
+          if (!scope.has(f.definedName!)) scope.set(f.definedName!, { kind: 'failed', digest: digest('failed', sourceOf(lines, f.range)), line: f.range.start.line });
+        }
+      };
       for (const stmt of p.statements) {
+        claimFailedBefore(stmt.range.start.line);
         const source = sourceOf(lines, stmt.range);
         const refs = referencedNames(stmt);
         const refKey = refs.map((r) => `${r}=${scope.get(r)?.digest ?? (isBuiltin(r) ? 'builtin' : 'undefined')}`).join(',');
@@ -182,6 +191,7 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
           ...(entry.result ? { result: entry.result } : {}),
         });
       }
+      claimFailedBefore(Infinity);
       const regionDiagnostics: Diagnostic[] = [];
       if (p.block.regionProblem === 'unclosed') {
         regionDiagnostics.push(diag(Code.UnclosedFence, 'error', 'this `orbit` block has no closing fence: add a line with ``` after its last statement', lineRange(lines, p.block.fenceLine)));
