@@ -116,7 +116,9 @@ export function planWrite(text: string, evaluation: NoteEvaluation, options: { r
         const at = offsetOfLine(after);
         edits.push({ start: at, end: at, text: body + eol, startLine: after, endLine: after });
       } else {
-        edits.push({ start: text.length, end: text.length, text: (text.endsWith('\n') || text === '' ? '' : eol) + body + eol, startLine: after, endLine: after });
+        // At the very end: a note without a final line break stays without one.
+        const endsWithBreak = text.endsWith('\n');
+        edits.push({ start: text.length, end: text.length, text: endsWithBreak ? body + eol : eol + body, startLine: after, endLine: after });
       }
     }
   }

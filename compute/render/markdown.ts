@@ -53,6 +53,15 @@ export function markdownTable(t: Table, maxRows = MAX_REGION_ROWS): string {
   return out.join('\n');
 }
 
+/**
+ * A diagnostic as written into a region: without line numbers, which would change
+ * whenever a region above grows and so make writing results never settle.
+ */
+function regionDiagnostic(d: Diagnostic): string {
+  const message = d.message.replace(/ \((?:first )?on line \d+\)/g, '').replace(/ on line \d+/g, ' above');
+  return `${severityMark(d)} ${d.code}: ${escapeMarkdown(message)}`;
+}
+
 function severityMark(d: Diagnostic): string {
   return d.severity === 'error' ? 'error' : d.severity === 'warning' ? 'warning' : 'note';
 }
@@ -78,10 +87,10 @@ export function renderRegionBody(block: RenderableBlock, settings: { readonly ca
     } else {
       parts.push(`- ${head} → not computed`);
     }
-    for (const d of s.diagnostics) parts.push(`  - ${severityMark(d)} ${d.code} (line ${d.range.start.line + 1}): ${escapeMarkdown(d.message)}`);
+    for (const d of s.diagnostics) parts.push(`  - ${regionDiagnostic(d)}`);
   }
   const loose = block.diagnostics.filter((d) => !statementDiagnostics.has(d));
-  for (const d of loose) parts.push(`- ${severityMark(d)} ${d.code} (line ${d.range.start.line + 1}): ${escapeMarkdown(d.message)}`);
+  for (const d of loose) parts.push(`- ${regionDiagnostic(d)}`);
   if (cautions.size > 0) {
     parts.push('');
     for (const c of cautions) parts.push(`> **Caution.** ${escapeMarkdown(c)}`, '>');

@@ -12,7 +12,10 @@ async function write(text: string, force = false): Promise<string> {
 
 /** The note with every generated region (and the blank line joining it) removed. */
 function stripRegions(text: string): string {
-  return text.replace(/(\r?\n)?<!-- orbit results · [^\n]*\n[\s\S]*?<!-- orbit results end -->\r?\n?/g, (_m, lead: string | undefined) => (lead ?? '') === '' ? '' : lead!);
+  // A region takes its own line break; one written at the very end of a note without a
+  // final line break instead takes the break before it.
+  return text.replace(/(\r?\n)?<!-- orbit results · [^\n]*\n[\s\S]*?<!-- orbit results end -->(\r?\n|$)/g,
+    (_m, lead: string | undefined, trail: string) => (trail === '' ? '' : lead ?? ''));
 }
 
 const NOTE = [
