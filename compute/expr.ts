@@ -101,7 +101,7 @@ export function evaluateExpr(e: Expr, scope: ExprScope): Quantity {
   }
 }
 
-function unknownName(name: string, range: Expr['range'], scope: ExprScope): never {
+function unknownName(name: string, range: Expr['range'], scope: ExprScope, what: 'name' | 'body' = 'name'): never {
   const candidates = [...scope.names()];
   let best: string | undefined;
   let bestD = Infinity;
@@ -109,7 +109,7 @@ function unknownName(name: string, range: Expr['range'], scope: ExprScope): neve
     const d = levenshtein(name, c);
     if (d < bestD && d <= Math.max(1, Math.floor(name.length / 3))) { best = c; bestD = d; }
   }
-  fail(Code.UnknownName, `unknown name \`${name}\`${best ? ` — did you mean \`${best}\`?` : ' (names must be defined by `let`, `body` or `series` above their use)'}`, range);
+  fail(what === 'body' ? Code.UnknownBody : Code.UnknownName, `unknown ${what === 'body' ? 'body or name' : 'name'} \`${name}\`${best ? ` — did you mean \`${best}\`?` : ' (names must be defined by `let`, `body` or `series` above their use)'}`, range);
 }
 
 function levenshtein(a: string, b: string): number {
@@ -130,7 +130,9 @@ function levenshtein(a: string, b: string): number {
 export function periodOperand(e: Expr, scope: ExprScope): Quantity {
   if (e.type === 'name') {
     const b = scope.body(e.name);
-    if (b && !scope.quantity(e.name, e.range)) return bodyPeriod(b, e.range);
+    const q = scope.quantity(e.name, e.range);
+    if (b && !q) return bodyPeriod(b, e.range);
+    if (!b && !q) unknownName(e.name, e.range, scope, 'body');
   }
   const q = evaluateExpr(e, scope);
   if (q.dim === 'time') return q;

@@ -7,6 +7,8 @@ import type { Statement, StatementKind } from '../../language/ast.js';
 import type { EvalContext, Series } from '../context.js';
 import type { StatementResult } from '../result.js';
 import { evalDate } from './date.js';
+import { evalPeriodogram } from './periodogram.js';
+import { loadSeries } from './series.js';
 
 export type Handler<K extends StatementKind> =
   (stmt: Extract<Statement, { kind: K }>, ctx: EvalContext) => StatementResult | Promise<StatementResult>;
@@ -29,4 +31,6 @@ export interface Handlers {
 
 export const HANDLERS: Handlers = {
   date: evalDate,
+  series: loadSeries,
+  periodogram: evalPeriodogram,
 };
