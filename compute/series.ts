@@ -6,7 +6,7 @@
  * interprets the cells. Pure: the text comes in, nothing is read here.
  */
 import { parse } from 'csv-parse/sync';
-import { suggest } from '../language/diagnostics.js';
+import { editDistance } from '../language/diagnostics.js';
 import { JULIAN_YEAR_DAYS } from './quantity.js';
 import { LimitError } from './limits.js';
 
@@ -64,7 +64,14 @@ function findColumn(header: readonly string[], wanted: string, role: 'time' | 'v
   let idx = header.indexOf(wanted);
   if (idx < 0) idx = header.findIndex((h) => h.toLowerCase() === wanted.toLowerCase());
   if (idx >= 0) return idx;
-  const hint = suggest(wanted, header);
+  // Header names are often transposed or abbreviated: allow two edits (more for long names).
+  const limit = Math.max(2, Math.floor(wanted.length / 3));
+  let hint: string | undefined;
+  let best = Infinity;
+  for (const h of header) {
+    const d = editDistance(wanted.toLowerCase(), h.toLowerCase());
+    if (d <= limit && d < best) { best = d; hint = h; }
+  }
   const list = header.map((h) => `\`${h}\``).join(', ');
   throw new SeriesError(`no ${role} column \`${wanted}\` in the header line${hint ? ` — did you mean \`${hint}\`?` : ''} (columns: ${list})`, 1, wanted);
 }
@@ -95,6 +102,7 @@ export function parseSeriesCsv(text: string, spec: SeriesSpec, maxRows = MAX_SER
     const raw = String(err.message ?? e);
     const counts = /expect (\d+), got (\d+)/.exec(raw);
     const why = counts ? `line ${line ?? '?'} has ${counts[2]} cells but the header line has ${counts[1]}`
+      : raw.startsWith('Quote Not Closed') ? `a quoted cell is never closed: a " opens it and the file ends${line !== undefined ? ` at line ${line}` : ''} without the closing "`
       : `${raw}${line !== undefined && !raw.includes('line') ? ` (line ${line})` : ''}`;
     throw new SeriesError(`the file is not valid CSV: ${why}`, line);
   }
