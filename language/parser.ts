@@ -80,6 +80,16 @@ const UNIT_ALIASES: ReadonlyMap<string, string> = new Map(Object.entries({
 }));
 
 /**
+ * The unit a word not in the language was probably meant to be (`years` → `yr`,
+ * `AU` → `au`, `dg` → `deg`), or undefined. One-letter words get no edit-distance guess.
+ */
+export function unitHint(word: string): string | undefined {
+  const lower = word.toLowerCase();
+  if (isUnit(lower)) return lower;
+  return UNIT_ALIASES.get(lower) ?? (word.length >= 2 ? suggest(word, UNIT_NAMES) : undefined);
+}
+
+/**
  * Whether a spelling is a unit. Guards against inherited object keys (`toString`), which
  * `lookupUnit`'s `in` test would otherwise accept.
  */
@@ -128,7 +138,15 @@ class StatementParser {
 
   // ---- tokens -------------------------------------------------------------
 
-  private peek(words = false): Token { return lexAt(this.text, this.pos, words); }
+  private peeked: { pos: number; words: boolean; token: Token } | undefined;
+
+  private peek(words = false): Token {
+    const c = this.peeked;
+    if (c && c.pos === this.pos && c.words === words) return c.token;
+    const token = lexAt(this.text, this.pos, words);
+    this.peeked = { pos: this.pos, words, token };
+    return token;
+  }
 
   private take(t: Token): Token {
     this.pos = t.end;
@@ -448,6 +466,8 @@ class StatementParser {
   private endsOperands(kw: StatementKind, t: Token): boolean {
     if (t.type === 'eof') return true;
     if (t.type !== 'ident') return false;
+    // `period(b)` is a call even where `period` is also an option word.
+    if (this.isOp(lexAt(this.text, t.end), '(')) return false;
     const options = STATEMENT_OPTIONS[kw];
     if (options.includes(t.text) || STOP_WORDS.has(t.text)) return true;
     if (this.known.has(t.text)) return false;
@@ -765,8 +785,7 @@ class StatementParser {
     const word = this.peek(true);
     if (STOP_WORDS.has(word.text)) return undefined;
     if (list && t.spaceBefore && this.known.has(t.text)) return undefined;
-    const lower = t.text.toLowerCase();
-    const hint = isUnit(lower) ? lower : UNIT_ALIASES.get(lower) ?? (t.text.length >= 2 ? suggest(t.text, UNIT_NAMES) : undefined);
+    const hint = unitHint(t.text);
     // In an operand list a spaced word that looks like no unit is the next operand.
     if (list && t.spaceBefore && (hint === undefined || t.text.length < 2)) return undefined;
     this.take(t);

@@ -334,6 +334,12 @@ describe('parseBlock', () => {
       assert.deepEqual([show(s.a), show(s.b)], ['11.86 yr', '29.46 yr']);
     });
 
+    it('reads period(b) as a call in an operand list, though `period` is also an option word', () => {
+      const { statements, diagnostics } = parse('synodic a period(b)');
+      assert.deepEqual(diagnostics, []);
+      assert.equal(show(stmt(statements[0], 'synodic').b), 'period(b)');
+    });
+
     it('starts the next operand at a minus sign written with a space before and none after', () => {
       const { statements } = parse('synodic a -b\nsynodic a - b c');
       const s1 = stmt(statements[0], 'synodic');
