@@ -29,7 +29,6 @@ export const arbNumberText: fc.Arbitrary<string> = fc.oneof(
   fc.tuple(fc.integer({ min: 1, max: 9 }), fc.nat(999), fc.integer({ min: -12, max: 12 })).map(([a, b, e]) => `${a}.${b}e${e}`),
 );
 
-const sp = fc.constantFrom(' ', '  ', '\t');
 
 function withUnit(units: readonly string[]): fc.Arbitrary<string> {
   return fc.tuple(arbNumberText, fc.constantFrom(...units), fc.option(fc.tuple(fc.constantFrom('±', '+-'), arbNumberText, fc.boolean())))
