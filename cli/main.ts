@@ -16,6 +16,7 @@ import { createNoteEvaluator, type NoteEvaluation } from '../compute/note.js';
 import { ORBIT_NOTES_VERSION } from '../compute/provenance.js';
 import { planWrite, regionStatuses } from '../compute/writeback.js';
 import { createFsHost, findWorkspace, writeFileAtomic } from './fsHost.js';
+import { renderStandalonePage } from './page.js';
 
 const USAGE = `usage: orbit-notes <command> PATHS… [options]
 
@@ -23,12 +24,14 @@ commands:
   run PATHS…     evaluate the orbit blocks of each note and print every result
   write PATHS…   evaluate and write results into the generated regions under each block
   check PATHS…   evaluate and compare with the regions in the notes (exit 1 on a difference)
+  html NOTE -o FILE.html   a standalone page of the note with its results, tables and plots
 
 PATHS are Markdown files or folders (searched for *.md).
 options:
   --json                 (run) one JSON document with every statement's result
   --summary              (run) one line per note instead of one per statement
   --force                (write) also overwrite regions that were edited by hand
+  -o, --output FILE      (html) where to write the page
   --workspace DIR        folder that data files must lie in (default: the note's git work tree)
   --max-evaluations N    ephemeris evaluations one statement may use (default ${DEFAULT_LIMITS.maxEvaluations})
   --max-span-years N     longest search span in years (default ${DEFAULT_LIMITS.maxSpanDays / 365.25})
@@ -38,7 +41,8 @@ options:
 class UsageError extends Error {}
 
 interface Options {
-  command: 'run' | 'write' | 'check';
+  command: 'run' | 'write' | 'check' | 'html';
+  output?: string;
   paths: string[];
   json: boolean;
   summary: boolean;
@@ -51,7 +55,7 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
   if (argv.includes('--help') || argv.includes('-h')) return 'help';
   if (argv.includes('--version')) return 'version';
   const [command, ...rest] = argv;
-  if (command !== 'run' && command !== 'write' && command !== 'check') {
+  if (command !== 'run' && command !== 'write' && command !== 'check' && command !== 'html') {
     throw new UsageError(command ? `unknown command \`${command}\`` : 'no command given');
   }
   const o: Options = { command, paths: [], json: false, summary: false, force: false, limits: { ...DEFAULT_LIMITS } };
@@ -66,6 +70,7 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
       case '--json': o.json = true; break;
       case '--summary': o.summary = true; break;
       case '--force': o.force = true; break;
+      case '-o': case '--output': { const v = rest[++i]; if (!v) throw new UsageError(`${a} needs a file name`); o.output = v; break; }
       case '--workspace': { const v = rest[++i]; if (!v) throw new UsageError('--workspace needs a folder'); o.workspace = v; break; }
       case '--max-evaluations': o.limits = { ...o.limits, maxEvaluations: num(a, rest[++i]) }; break;
       case '--max-span-years': o.limits = { ...o.limits, maxSpanDays: num(a, rest[++i]) * 365.25 }; break;
@@ -78,6 +83,8 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
   if (o.paths.length === 0) throw new UsageError(`\`${command}\` needs at least one note or folder`);
   if (o.json && command !== 'run') throw new UsageError('--json goes with `run`');
   if (o.force && command !== 'write') throw new UsageError('--force goes with `write`');
+  if (command === 'html' && (o.paths.length !== 1 || !o.output)) throw new UsageError('`html` takes one note and -o FILE.html');
+  if (o.output && command !== 'html') throw new UsageError('-o goes with `html`');
   return o;
 }
 
@@ -179,6 +186,10 @@ export async function main(argv: readonly string[]): Promise<number> {
         }
         printDiagnostics(r);
       }
+    } else if (o.command === 'html') {
+      writeFileAtomic(resolve(o.output!), renderStandalonePage(r.text, r.evaluation, r.display));
+      process.stdout.write(`${r.display}: page written to ${o.output}\n`);
+      printDiagnostics(r);
     } else if (o.command === 'write') {
       const plan = planWrite(r.text, r.evaluation, { force: o.force });
       // Re-read just before writing: never overwrite a change made while we computed.
