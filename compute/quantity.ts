@@ -200,10 +200,17 @@ export function formatQuantity(q: Quantity, unit: UnitDef = defaultUnit(q), digi
   const v = q.value / unit.factor;
   const s = sigmaOf(q) / unit.factor;
   const u = unit.name === '' ? '' : unit.name.startsWith('/') ? ` ${unit.name}` : ` ${unit.name}`;
-  if (!(s > 0) || !Number.isFinite(s)) return `${formatSig(v, digits)}${u}`;
+  // An exact value has no meaningful trailing zeros.
+  if (!(s > 0) || !Number.isFinite(s)) return `${trimZeros(formatSig(v, digits))}${u}`;
   const decimals = Math.max(0, 1 - Math.floor(Math.log10(s)));
   if (decimals > 12) return `${formatSig(v, digits)} ± ${formatSig(s, 2)}${u}`;
   return `${v.toFixed(decimals)} ± ${s.toFixed(decimals)}${u}`;
+}
+
+/** `2.500000` → `2.5`, `3.000` → `3` (exponent forms untouched). */
+export function trimZeros(text: string): string {
+  if (!text.includes('.') || /e/i.test(text)) return text;
+  return text.replace(/\.?0+$/, '');
 }
 
 /** `x` to `n` significant digits without exponent notation for ordinary magnitudes. */
