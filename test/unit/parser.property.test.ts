@@ -1,6 +1,7 @@
 import { strict as assert } from 'node:assert';
 import fc from 'fast-check';
 import type { Position, Range } from '../../language/ast.js';
+import { complete } from '../../language/completion.js';
 import { Code } from '../../language/diagnostics.js';
 import { splitLines } from '../../language/lexer.js';
 import { parseBlock } from '../../language/parser.js';
@@ -50,7 +51,7 @@ function checkBlock(text: string, firstLine: number): ReturnType<typeof parseBlo
 
 const firstLine = fc.nat(10_000);
 
-describe('parseBlock on generated blocks', () => {
+describe('parseBlock and complete on generated blocks', () => {
   it('parses every generated valid block into one statement per generated statement with no diagnostic', () => {
     fc.assert(fc.property(arbValidBlock, firstLine, (block, line) => {
       const result = checkBlock(block.text, line);
@@ -75,6 +76,16 @@ describe('parseBlock on generated blocks', () => {
         assert.ok(result.diagnostics.some((d) => d.severity === 'error' && d.range.start.line >= f.range.start.line && d.range.end.line <= f.range.end.line),
           `no diagnostic for the failed statement at ${JSON.stringify(f.range)} in ${JSON.stringify(text)}`);
       }
+    }), { numRuns: 1000 });
+  });
+
+  it('completes at any position of 1000 mutated blocks without throwing, offering only labelled items', () => {
+    fc.assert(fc.property(arbMutatedBlock, fc.nat(), fc.nat(), (text, l, c) => {
+      const lines = splitLines(text);
+      const line = l % lines.length;
+      const character = c % (lines[line]!.length + 1);
+      const items = complete(text, 0, { line, character }, { names: ['p'], bodies: ['mars'] });
+      for (const i of items) assert.ok(i.label.length > 0, JSON.stringify(i));
     }), { numRuns: 1000 });
   });
 });
