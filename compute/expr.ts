@@ -1,6 +1,6 @@
 /** Evaluation of `let` expressions: numbers with units and uncertainties, names, calls. */
 import type { Expr } from '../language/ast.js';
-import { Code } from '../language/diagnostics.js';
+import { Code, suggest } from '../language/diagnostics.js';
 import { fail, type ResolvedBody } from './context.js';
 import {
   abs, add, describeDim, DimensionError, div, lookupUnit, measured, mul, neg, newInputId, reciprocal, exact, type Quantity,
@@ -102,28 +102,8 @@ export function evaluateExpr(e: Expr, scope: ExprScope): Quantity {
 }
 
 function unknownName(name: string, range: Expr['range'], scope: ExprScope, what: 'name' | 'body' = 'name'): never {
-  const candidates = [...scope.names()];
-  let best: string | undefined;
-  let bestD = Infinity;
-  for (const c of candidates) {
-    const d = levenshtein(name, c);
-    if (d < bestD && d <= Math.max(1, Math.floor(name.length / 3))) { best = c; bestD = d; }
-  }
+  const best = suggest(name, scope.names());
   fail(what === 'body' ? Code.UnknownBody : Code.UnknownName, `unknown ${what === 'body' ? 'body or name' : 'name'} \`${name}\`${best ? ` — did you mean \`${best}\`?` : ' (names must be defined by `let`, `body` or `series` above their use)'}`, range);
-}
-
-function levenshtein(a: string, b: string): number {
-  const dp = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let prev = dp[0]!;
-    dp[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const t = dp[j]!;
-      dp[j] = Math.min(dp[j]! + 1, dp[j - 1]! + 1, prev + (a[i - 1] === b[j - 1] ? 0 : 1));
-      prev = t;
-    }
-  }
-  return dp[b.length]!;
 }
 
 /** An operand that stands for a period: a body name, or an expression of time (or frequency) dimension. */
