@@ -301,6 +301,12 @@ export interface Peak {
   readonly gridIndex: number;
 }
 
+/** Least separation of two listed peaks, in peak widths 1/T. */
+export const PEAK_SEPARATION_WIDTHS = 2;
+
+/** Peaks with a false-alarm probability above this are not used to match computed periods. */
+export const MATCH_MAX_FAP = 0.05;
+
 /** Half width at half maximum around grid index k, cycles per day (linear interpolation at the crossings). */
 function halfWidth(power: Float64Array, grid: FrequencyGrid, k: number): number {
   const half = power[k]! / 2;
@@ -319,7 +325,9 @@ function halfWidth(power: Float64Array, grid: FrequencyGrid, k: number): number 
 
 /**
  * The `count` highest distinct local maxima: interior grid maxima, ranked by power, each at least
- * one peak width (1/T) from every higher one so that one peak's shoulders are not listed twice.
+ * {@link PEAK_SEPARATION_WIDTHS}/T from every higher one, so that the first side lobes of a strong
+ * peak (at about ±1.4/T, some 5 % of its power, for a sinc²-like spectral window) are not listed
+ * as peaks of their own. Two real periods closer than that are not resolved separately.
  * Each is refined by a parabola through its three grid points and a direct evaluation there.
  */
 export function findPeaks(prep: Prepared, grid: FrequencyGrid, power: Float64Array, count: number): Peak[] {
@@ -328,7 +336,7 @@ export function findPeaks(prep: Prepared, grid: FrequencyGrid, power: Float64Arr
     if (power[k]! > power[k - 1]! && power[k]! >= power[k + 1]!) candidates.push(k);
   }
   candidates.sort((a, b) => power[b]! - power[a]!);
-  const separationPerDay = 1 / prep.spanDays;
+  const separationPerDay = PEAK_SEPARATION_WIDTHS / prep.spanDays;
   const bandwidth = grid.dfPerDay * (grid.count - 1);
   const out: Peak[] = [];
   for (const k of candidates) {
@@ -359,7 +367,7 @@ export interface PeriodMatch {
   readonly periodDays: number;
   /** 1σ of the period, days (0 when exact). */
   readonly sigmaDays: number;
-  /** Index into the peaks list of the nearest peak in frequency, or −1 when there are none. */
+  /** Index into the peaks list of the nearest significant peak (FAP ≤ maxFap) in frequency, or −1 when none is. */
   readonly peakIndex: number;
   /** Frequency offset from that peak, cycles per day (signed: mark − peak). */
   readonly offsetPerDay: number;
@@ -368,17 +376,19 @@ export interface PeriodMatch {
   readonly matched: boolean;
   /**
    * Chance that a period drawn at random, uniform in frequency over the searched band, lands within
-   * tolerance of at least one listed peak (the union of their tolerance intervals over the band width).
+   * tolerance of at least one significant listed peak (the union of their tolerance intervals over the
+   * band width); 0 when no listed peak is significant.
    */
   readonly chance: number;
 }
 
 /**
- * Set computed periods against the listed peaks. Null model: the computed period is unrelated
- * to the data, its frequency uniform over the searched band (stated in the result's details).
+ * Set computed periods against the significant listed peaks (FAP ≤ `maxFap`): a period that lands on
+ * a peak noise could have made is no match. Null model for the chance: the computed period is
+ * unrelated to the data, its frequency uniform over the searched band (stated in the result's details).
  * @param marks periods in days with 1σ in days
  */
-export function matchPeriods(peaks: readonly Peak[], grid: FrequencyGrid, marks: ReadonlyArray<{ label: string; periodDays: number; sigmaDays: number }>): PeriodMatch[] {
+export function matchPeriods(peaks: readonly Peak[], grid: FrequencyGrid, marks: ReadonlyArray<{ label: string; periodDays: number; sigmaDays: number }>, maxFap = MATCH_MAX_FAP): PeriodMatch[] {
   const fLo = grid.f0PerDay;
   const fHi = grid.f0PerDay + grid.dfPerDay * (grid.count - 1);
   const band = fHi - fLo;
@@ -388,10 +398,11 @@ export function matchPeriods(peaks: readonly Peak[], grid: FrequencyGrid, marks:
     const tolOf = (p: Peak): number => Math.sqrt(p.halfWidthPerDay ** 2 + (2 * sigmaF) ** 2);
     let best = -1;
     for (let j = 0; j < peaks.length; j++) {
+      if (peaks[j]!.fap > maxFap) continue;
       if (best < 0 || Math.abs(f - peaks[j]!.frequencyPerDay) < Math.abs(f - peaks[best]!.frequencyPerDay)) best = j;
     }
-    // Union of tolerance intervals of all peaks, clipped to the band.
-    const intervals = peaks.map((p) => [Math.max(fLo, p.frequencyPerDay - tolOf(p)), Math.min(fHi, p.frequencyPerDay + tolOf(p))] as const)
+    // Union of tolerance intervals of the significant peaks, clipped to the band.
+    const intervals = peaks.filter((p) => p.fap <= maxFap).map((p) => [Math.max(fLo, p.frequencyPerDay - tolOf(p)), Math.min(fHi, p.frequencyPerDay + tolOf(p))] as const)
       .filter(([a, b]) => b > a).sort((x, y) => x[0] - y[0]);
     let covered = 0;
     let curA = -Infinity;
@@ -406,7 +417,7 @@ export function matchPeriods(peaks: readonly Peak[], grid: FrequencyGrid, marks:
     return {
       label: m.label, periodDays: m.periodDays, sigmaDays: m.sigmaDays, peakIndex: best,
       offsetPerDay: offset, tolerancePerDay: tol, matched: peak !== undefined && Math.abs(offset) <= tol,
-      chance: band > 0 ? Math.min(1, covered / band) : 1,
+      chance: band > 0 ? Math.min(1, covered / band) : 0,
     };
   });
 }

@@ -96,9 +96,11 @@ function pixelPoints(xs: readonly number[], ys: readonly number[], x: Scale, y: 
 }
 
 /** Tick marks, labels and grid lines of one axis. */
-function axis(scale: Scale, orient: 'bottom' | 'left', plotLeft: number, plotTop: number, plotW: number, plotH: number, ticks: readonly number[] | undefined): string {
-  const values = ticks ?? scale.ticks(orient === 'bottom' ? 7 : 5);
-  const fmt = scale.tickFormat(orient === 'bottom' ? 7 : 5);
+function axis(scale: Scale, orient: 'bottom' | 'left', plotLeft: number, plotTop: number, plotW: number, plotH: number, ticks: readonly number[] | undefined, log = false): string {
+  const count = orient === 'bottom' ? 7 : 5;
+  const values = ticks ?? scale.ticks(count);
+  // No thousands separators (years, Julian Dates); the log scale keeps d3's label thinning.
+  const fmt = scale.tickFormat(count, log ? '~g' : '~f');
   const parts: string[] = [`<g class="orbit-axis orbit-axis-${orient === 'bottom' ? 'x' : 'y'}">`];
   if (orient === 'bottom') {
     const y0 = plotTop + plotH;
@@ -169,7 +171,8 @@ export function renderSvg(spec: PlotSpec, options: SvgOptions = {}): string {
     yd = [cy - half * Math.max(1, plotH / plotW), cy + half * Math.max(1, plotH / plotW)];
   }
   const x: Scale = xLog ? scaleLog().domain(xd).range([plotLeft, plotLeft + plotW]) : scaleLinear().domain(xd).range([plotLeft, plotLeft + plotW]);
-  if (spec.kind !== 'path') x.nice();
+  // A log axis keeps its data extent: rounding it out to decades can waste most of the width.
+  if (spec.kind !== 'path' && !xLog) x.nice();
   const y: Scale = scaleLinear().domain(yd).range([plotTop + plotH, plotTop]);
   if (spec.kind !== 'path' && spec.kind !== 'timeline') y.nice();
 
@@ -192,7 +195,7 @@ export function renderSvg(spec: PlotSpec, options: SvgOptions = {}): string {
     parts.push('</g>');
   }
 
-  parts.push(axis(x, 'bottom', plotLeft, plotTop, plotW, plotH, undefined));
+  parts.push(axis(x, 'bottom', plotLeft, plotTop, plotW, plotH, undefined, xLog));
   parts.push(axis(y, 'left', plotLeft, plotTop, plotW, plotH, yTicks));
   parts.push(`<text class="orbit-axis-label" x="${n1(plotLeft + plotW / 2)}" y="${n1(height - 8)}" text-anchor="middle" style="fill: currentColor">${escapeXml(spec.xLabel)}</text>`);
   parts.push(`<text class="orbit-axis-label" transform="translate(14 ${n1(plotTop + plotH / 2)}) rotate(-90)" text-anchor="middle" style="fill: currentColor">${escapeXml(spec.yLabel)}</text>`);

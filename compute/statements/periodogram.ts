@@ -3,7 +3,7 @@ import type { Expr, Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { EvalError, fail, type EvalContext } from '../context.js';
 import { CancelledError, LimitError } from '../limits.js';
-import { chanceAtLeast, matchPeriods, MIN_PERIODOGRAM_SAMPLES, periodogram, DEFAULT_OVERSAMPLING, type Peak } from '../periodogram.js';
+import { chanceAtLeast, DEFAULT_OVERSAMPLING, MATCH_MAX_FAP, matchPeriods, MIN_PERIODOGRAM_SAMPLES, PEAK_SEPARATION_WIDTHS, periodogram, type Peak } from '../periodogram.js';
 import { ORBIT_NOTES_VERSION } from '../provenance.js';
 import { defaultUnit, describeDim, formatSig, sigmaOf, type Quantity, type UnitDef } from '../quantity.js';
 import type { PlotSpec, StatementResult, Table } from '../result.js';
@@ -129,15 +129,15 @@ export function evalPeriodogram(stmt: PeriodogramStmt, ctx: EvalContext): Statem
   if (matches.length > 0) {
     tables.push({
       title: 'Computed periods against the peaks',
-      columns: ['period', 'value', 'nearest peak', 'offset', 'tolerance', 'match', 'chance'],
+      columns: ['period', 'value', `nearest peak with FAP ≤ ${MATCH_MAX_FAP}`, 'offset', 'tolerance', 'match', 'chance'],
       rows: matches.map((m) => [
         m.label,
         `${fmtPeriod(m.periodDays, unit)}${m.sigmaDays > 0 ? ` ± ${formatSig(m.sigmaDays / unit.factor, 2)}` : ''}`,
-        m.peakIndex >= 0 ? `#${m.peakIndex + 1} ${fmtPeriod(peaks[m.peakIndex]!.periodDays, unit)}` : '—',
+        m.peakIndex >= 0 ? `#${m.peakIndex + 1} ${fmtPeriod(peaks[m.peakIndex]!.periodDays, unit)}` : 'none listed',
         Number.isFinite(m.offsetPerDay) ? `${formatSig(m.offsetPerDay / fUnit.factor, 2)} ${fUnit.name}` : '—',
-        `${formatSig(m.tolerancePerDay / fUnit.factor, 2)} ${fUnit.name}`,
+        m.peakIndex >= 0 ? `${formatSig(m.tolerancePerDay / fUnit.factor, 2)} ${fUnit.name}` : '—',
         m.matched ? 'yes' : 'no',
-        fmtProb(m.chance),
+        m.peakIndex >= 0 ? fmtProb(m.chance) : '—',
       ]),
       align: ['l', 'r', 'r', 'r', 'r', 'l', 'r'],
     });
@@ -158,7 +158,9 @@ export function evalPeriodogram(stmt: PeriodogramStmt, ctx: EvalContext): Statem
   else summaryParts.push('no peak inside the period range');
   if (peaks.length > 1) summaryParts.push(`next ${peaks.slice(1, 3).map((p) => fmtPeriod(p.periodDays, unit, 4)).join(', ')}`);
   if (matches.length > 0) {
-    summaryParts.push(`${matchedCount} of ${matches.length} marked period${matches.length === 1 ? '' : 's'} match (chance ${fmtProb(chanceAtLeast(Math.max(matchedCount, 1), matches.map((m) => m.chance)))})`);
+    summaryParts.push(matchedCount === 0
+      ? `no marked period matches a significant peak`
+      : `${matchedCount} of ${matches.length} marked period${matches.length === 1 ? '' : 's'} match a significant peak (chance ${fmtProb(chanceAtLeast(matchedCount, matches.map((m) => m.chance)))})`);
   }
 
   const plot: PlotSpec = {
@@ -179,10 +181,10 @@ export function evalPeriodogram(stmt: PeriodogramStmt, ctx: EvalContext): Statem
       `Series \`${series.name}\`: ${n} samples over ${fmtPeriod(prepared.spanDays, unit, 4)}, equal weights; source ${series.source}.`,
       `Periods ${fmtPeriod(pg.minPeriodDays, unit, 4)} to ${fmtPeriod(pg.maxPeriodDays, unit, 4)}${stmt.periods ? '' : ' (default: twice the median step to the span)'}; ${grid.count} frequencies, uniform in frequency, ${DEFAULT_OVERSAMPLING} per peak width 1/T (VanderPlas 2018, ApJS 236, 16, §7.1).`,
       'Phases advanced by trigonometric recurrence between grid frequencies (Press et al., Numerical Recipes, 2nd ed., §5.5, §13.8), re-seeded exactly every 1024 frequencies.',
-      'Peaks: local maxima at least 1/T apart, refined by a parabola and a direct evaluation; ± is the half width at half maximum.',
+      `Peaks: local maxima at least ${PEAK_SEPARATION_WIDTHS}/T apart (so a strong peak's side lobes are not listed), refined by a parabola and a direct evaluation; ± is the half width at half maximum.`,
       `FAP: Baluev 2008, MNRAS 385, 1279 (floating mean, noise level unknown), over the band ${formatSig(fLo / fUnit.factor, 4)}–${formatSig(fHi / fUnit.factor, 4)} ${fUnit.name}.`,
       ...(matches.length > 0 ? [
-        'Match: the marked frequency lies within √(HWHM² + (2σ)²) of the nearest listed peak. Chance: the probability that a period unrelated to the data, uniform in frequency over the band, lands that close to any listed peak; for several marks, the chance of at least as many matches (Poisson-binomial).',
+        `Match: the marked frequency lies within √(HWHM² + (2σ)²) of the nearest listed peak whose FAP is at most ${MATCH_MAX_FAP} (a peak noise could have made matches nothing). Chance: the probability that a period unrelated to the data, uniform in frequency over the band, lands that close to any such peak; for several marks, the chance of at least as many matches (Poisson-binomial).`,
       ] : []),
     ],
     tables,

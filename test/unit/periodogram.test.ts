@@ -267,6 +267,15 @@ describe('marking computed periods against peaks', () => {
     assert.equal(off!.matched, nearestOff <= pg.peaks[off!.peakIndex]!.halfWidthPerDay);
   });
 
+  it('matches nothing to a peak that noise could have made (FAP above 0.05)', () => {
+    const weak = pg.peaks.map((p, i) => (i === 0 ? { ...p, fap: 0.5 } : p));
+    const [m] = matchPeriods(weak, pg.grid, [{ label: 'on', periodDays: pg.peaks[0]!.periodDays, sigmaDays: 0 }]);
+    assert.notEqual(m!.peakIndex, 0);
+    assert.equal(m!.matched, pg.peaks.slice(1).some((p) => p.fap <= 0.05 && Math.abs(p.frequencyPerDay - pg.peaks[0]!.frequencyPerDay) <= p.halfWidthPerDay));
+    const [none] = matchPeriods(weak.map((p) => ({ ...p, fap: 0.9 })), pg.grid, [{ label: 'on', periodDays: 90, sigmaDays: 0 }]);
+    assert.deepEqual([none!.peakIndex, none!.matched, none!.chance], [-1, false, 0]);
+  });
+
   it('widens the tolerance with the mark’s uncertainty', () => {
     const [a, b] = matchPeriods(pg.peaks, pg.grid, [
       { label: 'a', periodDays: 97, sigmaDays: 0 }, { label: 'b', periodDays: 97, sigmaDays: 5 },
@@ -312,7 +321,7 @@ describe('the periodogram statement', () => {
     const r = evalPeriodogram(pgStmt('index', { periods: { from: numberExpr(3, 'yr'), to: numberExpr(60, 'yr') }, mark: [numberExpr(11.1, 'yr', 0.1), numberExpr(0.0333, '/yr')] }), fakeContext({ index: series }));
     const marks = r.tables[1]!;
     assert.deepEqual(marks.rows.map((row) => row[5]), ['yes', 'no']);
-    assert.match(r.summary, /1 of 2 marked periods match \(chance /);
+    assert.match(r.summary, /1 of 2 marked periods match a significant peak \(chance /);
     assert.deepEqual(r.plots![0]!.markers!.map((m) => m.label), ['11.1 yr ± 0.1', '0.0333 /yr']);
   });
 
