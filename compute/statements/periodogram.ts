@@ -64,6 +64,32 @@ function fmtProb(p: number): string {
   return p.toExponential(0);
 }
 
+/** Most points a periodogram plot carries; a plot is a few hundred pixels wide. */
+export const MAX_PLOT_POINTS = 20_000;
+
+/**
+ * The curve as (period in `unitDays`, power) points, thinned to the lowest and highest power of each
+ * run of consecutive frequencies when there are more than {@link MAX_PLOT_POINTS}, so no peak is lost.
+ */
+export function plotPoints(power: Float64Array, f0PerDay: number, dfPerDay: number, unitDays: number): { x: number[]; y: number[] } {
+  const x: number[] = [];
+  const y: number[] = [];
+  const push = (k: number): void => { x.push(1 / (f0PerDay + k * dfPerDay) / unitDays); y.push(power[k]!); };
+  const run = Math.ceil(power.length / (MAX_PLOT_POINTS / 2));
+  if (run <= 1) { for (let k = 0; k < power.length; k++) push(k); return { x, y }; }
+  for (let k0 = 0; k0 < power.length; k0 += run) {
+    let lo = k0;
+    let hi = k0;
+    for (let k = k0; k < Math.min(power.length, k0 + run); k++) {
+      if (power[k]! < power[lo]!) lo = k;
+      if (power[k]! > power[hi]!) hi = k;
+    }
+    push(Math.min(lo, hi));
+    if (lo !== hi) push(Math.max(lo, hi));
+  }
+  return { x, y };
+}
+
 /**
  * Evaluate a `periodogram` statement.
  * @throws EvalError: `OB201` for an unknown series (from ctx.series), `OB301`/`OB302` for a bad period
@@ -168,7 +194,7 @@ export function evalPeriodogram(stmt: PeriodogramStmt, ctx: EvalContext): Statem
     title: `Periodogram of ${series.name}`,
     xLabel: `period (${unit.name})`,
     yLabel: 'power (ZK09 standard, 0–1)',
-    series: [{ label: series.name, x: Array.from(pg.power, (_, k) => 1 / (grid.f0PerDay + k * grid.dfPerDay) / unit.factor), y: Array.from(pg.power) }],
+    series: [{ label: series.name, ...plotPoints(pg.power, grid.f0PerDay, grid.dfPerDay, unit.factor) }],
     markers: matches.map((m) => ({ x: m.periodDays / unit.factor, label: m.label })),
     xLog: true,
   };

@@ -9,7 +9,7 @@ import {
 } from '../../compute/periodogram.js';
 import { lookupUnit, measured, type Quantity } from '../../compute/quantity.js';
 import { createRng, type Rng } from '../../compute/random.js';
-import { evalPeriodogram, NOT_A_FORECAST } from '../../compute/statements/periodogram.js';
+import { evalPeriodogram, MAX_PLOT_POINTS, NOT_A_FORECAST, plotPoints } from '../../compute/statements/periodogram.js';
 
 const R: Range = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
 
@@ -182,9 +182,9 @@ describe('frequency grid and peaks', () => {
       console.log(`      ${p} d → ${hit.periodDays.toFixed(2)} d (HWHM ${(hit.halfWidthPerDay * p * p).toFixed(2)} d), FAP ${hit.fap.toExponential(1)}`);
       assert.ok(hit.fap < 1e-6);
     }
-    // Distinct: no two listed peaks closer than one peak width.
+    // Distinct: no two listed peaks closer than two peak widths (side lobes excluded).
     for (let i = 0; i < pg.peaks.length; i++) for (let j = i + 1; j < pg.peaks.length; j++) {
-      assert.ok(Math.abs(pg.peaks[i]!.frequencyPerDay - pg.peaks[j]!.frequencyPerDay) >= 1 / pg.prepared.spanDays);
+      assert.ok(Math.abs(pg.peaks[i]!.frequencyPerDay - pg.peaks[j]!.frequencyPerDay) >= 2 / pg.prepared.spanDays);
     }
   });
 
@@ -348,6 +348,14 @@ describe('the periodogram statement', () => {
     const budget = new Budget(DEFAULT_LIMITS, { isCancelled: () => ++calls > 1 });
     assert.throws(() => evalPeriodogram(pgStmt('index', { periods: { from: numberExpr(2.1, 'yr'), to: numberExpr(100, 'yr') } }), fakeContext({ index: series }, budget)),
       (e: unknown) => e instanceof CancelledError);
+  });
+
+  it('thins a long curve for the plot but keeps the highest power', () => {
+    const power = new Float64Array(123_457).map((_, k) => (k === 77_777 ? 0.9 : 0.1 + 0.05 * Math.sin(k)));
+    const { x, y } = plotPoints(power, 0.001, 1e-6, 365.25);
+    assert.ok(y.length <= MAX_PLOT_POINTS && y.length === x.length);
+    assert.equal(Math.max(...y), 0.9);
+    assert.ok(Math.abs(x[y.indexOf(0.9)]! - 1 / (0.001 + 77_777e-6) / 365.25) < 1e-12);
   });
 
   it('warns when the period range runs below twice the sampling step or beyond the span', () => {
