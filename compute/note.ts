@@ -7,7 +7,7 @@
  */
 import type { DateLit, Expr, Ident, Range, Statement } from '../language/ast.js';
 import { Code, diag, suggest, type Diagnostic } from '../language/diagnostics.js';
-import { extractBlocks, type ExtractedBlock } from '../language/extract.js';
+import { extractBlocks, splitLines, type ExtractedBlock } from '../language/extract.js';
 import { parseBlock } from '../language/parser.js';
 import { builtinPeriod } from './bodies.js';
 import { BUILTIN_BODIES, EvalError, fail, type BuiltinBody, type EvalContext, type ResolvedBody, type Series } from './context.js';
@@ -116,11 +116,11 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
   let cache = new Map<string, Cached>();
 
   async function evaluate(text: string, options: EvaluateOptions = {}): Promise<NoteEvaluation> {
-    const lines = text.split(/\r?\n/);
+    const lines = splitLines(text);
     const blocks = extractBlocks(text);
     const parsed = blocks.map((b) => {
       const p = parseBlock(b.content, b.contentStartLine);
-      return { block: b, statements: p.statements, failed: p.failed, diagnostics: shiftColumns(p.diagnostics, b.indent) };
+      return { block: b, statements: p.statements, failed: p.failed, diagnostics: p.diagnostics };
     });
     const noteDiagnostics: Diagnostic[] = [];
     const settings = collectSettings(parsed.flatMap((p) => p.statements), noteDiagnostics);
@@ -489,9 +489,4 @@ function lineRange(lines: readonly string[], line: number): Range {
 
 function shiftLines(d: Diagnostic, by: number): Diagnostic {
   return { ...d, range: { start: { line: d.range.start.line + by, character: d.range.start.character }, end: { line: d.range.end.line + by, character: d.range.end.character } } };
-}
-
-function shiftColumns(ds: readonly Diagnostic[], by: number): Diagnostic[] {
-  if (by === 0) return [...ds];
-  return ds.map((d) => ({ ...d, range: { start: { line: d.range.start.line, character: d.range.start.character + by }, end: { line: d.range.end.line, character: d.range.end.character + by } } }));
 }

@@ -72,10 +72,13 @@ function statusOf(b: BlockEvaluation): RegionStatus {
   return { ...base, actual, state: 'current', message: `${where}: up to date` };
 }
 
-/** Offsets where each line of `text` starts (a last entry for the end of the text). */
+/** Offsets where each line of `text` starts; `\r\n`, `\r` and `\n` end lines, as in CommonMark. */
 function lineStarts(text: string): number[] {
   const starts = [0];
-  for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) === 10) starts.push(i + 1);
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 13 && text.charCodeAt(i + 1) === 10) { starts.push(i + 2); i += 1; } else if (c === 10 || c === 13) starts.push(i + 1);
+  }
   return starts;
 }
 
@@ -117,7 +120,7 @@ export function planWrite(text: string, evaluation: NoteEvaluation, options: { r
         edits.push({ start: at, end: at, text: body + eol, startLine: after, endLine: after });
       } else {
         // At the very end: a note without a final line break stays without one.
-        const endsWithBreak = text.endsWith('\n');
+        const endsWithBreak = text.endsWith('\n') || text.endsWith('\r');
         edits.push({ start: text.length, end: text.length, text: endsWithBreak ? body + eol : eol + body, startLine: after, endLine: after });
       }
     }
@@ -136,6 +139,5 @@ export function planWrite(text: string, evaluation: NoteEvaluation, options: { r
 function lineTextAt(text: string, starts: readonly number[], line: number): string {
   const s = starts[line] ?? text.length;
   const next = starts[line + 1];
-  const raw = next === undefined ? text.slice(s) : text.slice(s, next - 1);
-  return raw.endsWith('\r') ? raw.slice(0, -1) : raw;
+  return (next === undefined ? text.slice(s) : text.slice(s, next)).replace(/\r?\n$|\r$/, '');
 }

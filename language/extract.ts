@@ -27,17 +27,16 @@ export interface Region {
 }
 
 export interface ExtractedBlock extends Block {
-  /** Columns the fence is indented by (content columns shift by this much). */
+  /** Columns the opening fence is indented by. `content` keeps document columns already. */
   readonly indent: number;
   readonly region?: Region;
   /** A begin marker without an end marker, or other region damage. */
   readonly regionProblem?: string;
 }
 
-/** Split keeping the information needed to rebuild text byte for byte. */
-export function splitLines(text: string): string[] {
-  return text.split(/\r?\n/);
-}
+/** Lines as CommonMark (and the editor) count them: `\r\n`, `\r` and `\n` all end a line. */
+export { splitLines } from './lexer.js';
+import { splitLines } from './lexer.js';
 
 /** Does an info string name an orbit block? Returns the block name ('' if none) or undefined. */
 export function orbitInfo(info: string): string | undefined {
@@ -63,7 +62,18 @@ export function extractBlocks(text: string): ExtractedBlock[] {
     const closeText = (lines[lastLine] ?? '').trim();
     const closed = lastLine > start && /^(`{3,}|~{3,})\s*$/.test(closeText) && closeText[0] === t.markup[0] && closeText.length >= t.markup.length;
     const closeLine = closed ? lastLine : lastLine;
-    const content = t.content.replace(/\n$/, '');
+    // Keep document columns: each content line is the source line with its container
+    // prefix (fence indentation, list indentation, `> ` of a block quote) blanked out, so
+    // every range the parser reports is a true document position.
+    const contentLines = t.content.replace(/\n$/, '').split('\n');
+    const content = (t.content === '' ? [] : contentLines).map((c, i) => {
+      const raw = lines[start + 1 + i] ?? '';
+      // A tab in the indentation can be split by CommonMark; keep the source's own
+      // whitespace then, so the line keeps its length.
+      const body = raw.endsWith(c) ? c : c.trimStart();
+      if (!raw.endsWith(body)) return c;
+      return raw.slice(0, raw.length - body.length).replace(/[^\t ]/g, ' ') + body;
+    }).join('\n');
     const block: ExtractedBlock = {
       ...(name !== '' ? { name } : {}),
       fenceLine: start,
