@@ -82,7 +82,7 @@ function operandItems(ctx: CompletionContext, withNames: boolean, withFunctions:
   const bodies = new Set(ctx.bodies);
   if (withNames) for (const n of ctx.names) if (!bodies.has(n)) out.push({ label: n, kind: 'name', detail: 'defined name' });
   if (withFunctions) {
-    for (const [f, n] of Object.entries(FUNCTIONS)) out.push({ label: f, kind: 'keyword', detail: n === 1 ? `${f}(B)` : `${f}(A, B)` });
+    for (const [f, n] of Object.entries(FUNCTIONS)) out.push({ label: f, kind: 'keyword', detail: f === 'abs' ? 'abs(x)' : n === 1 ? `${f}(B)` : `${f}(A, B)` });
   }
   return out;
 }

@@ -32,7 +32,7 @@ export const STATEMENT_OPTIONS: Readonly<Record<StatementKind, readonly string[]
 export const OPTION_WORDS: readonly string[] = [...new Set([...Object.values(STATEMENT_OPTIONS).flat(), 'to'])];
 
 /** Functions callable in expressions, with their number of arguments. */
-export const FUNCTIONS: Readonly<Record<string, number>> = { period: 1, frequency: 1, synodic: 2 };
+export const FUNCTIONS: Readonly<Record<string, number>> = { period: 1, frequency: 1, synodic: 2, abs: 1 };
 
 /** Values of the enumerated options. */
 export const OPTION_VALUES = {
@@ -705,11 +705,11 @@ class StatementParser {
     const arity = Object.hasOwn(FUNCTIONS, fnTok.text) ? FUNCTIONS[fnTok.text] : undefined;
     if (arity === undefined) {
       const s = suggest(fnTok.text, Object.keys(FUNCTIONS));
-      this.fatal(Code.UnknownName, `unknown function ${code(fnTok.text)}${meanHint(s)} Functions: period(B), frequency(B), synodic(A, B)`, fnTok.start, fnTok.end);
+      this.fatal(Code.UnknownName, `unknown function ${code(fnTok.text)}${meanHint(s)} Functions: period(B), frequency(B), synodic(A, B), abs(x)`, fnTok.start, fnTok.end);
     }
     this.take(open);
     const args: Expr[] = [];
-    const signature = arity === 1 ? `${fnTok.text}(B)` : `${fnTok.text}(A, B)`;
+    const signature = fnTok.text === 'abs' ? 'abs(x)' : arity === 1 ? `${fnTok.text}(B)` : `${fnTok.text}(A, B)`;
     for (;;) {
       const t = this.peek();
       if (this.isOp(t, ')') && args.length === 0) break;

@@ -32,7 +32,7 @@ describe('complete', () => {
     const items = at('synodic jupiter ‸');
     assert.deepEqual(labels(items, 'body'), ctx.bodies);
     assert.deepEqual(labels(items, 'name'), ['p_outer', 'spots']);
-    assert.deepEqual(labels(items, 'keyword'), ['period', 'frequency', 'synodic']);
+    assert.deepEqual(labels(items, 'keyword'), ['period', 'frequency', 'synodic', 'abs']);
   });
 
   it('offers the options once a statement has its operands', () => {

@@ -4,7 +4,7 @@ import * as path from 'node:path';
 import * as oniguruma from 'vscode-oniguruma';
 import * as vsctm from 'vscode-textmate';
 import { STATEMENT_KEYWORDS } from '../../language/ast.js';
-import { OPTION_WORDS } from '../../language/parser.js';
+import { FUNCTIONS, OPTION_WORDS } from '../../language/parser.js';
 import { UNIT_NAMES } from '../../compute/quantity.js';
 
 /**
@@ -118,6 +118,12 @@ describe('orbit injection grammar', () => {
   it('gives every unit spelling of the language the unit scope after a number', () => {
     for (const u of UNIT_NAMES) {
       assert.ok(scopeOf(inBlock(`let x = 3 ${u}`), u).includes('keyword.other.unit.orbit'), u);
+    }
+  });
+
+  it('gives every function of the parser the function scope before its parenthesis', () => {
+    for (const f of Object.keys(FUNCTIONS)) {
+      assert.ok(scopeOf(inBlock(`let x = ${f}(a)`), f).includes('support.function.orbit'), f);
     }
   });
 

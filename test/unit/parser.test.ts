@@ -276,9 +276,9 @@ describe('parseBlock', () => {
     });
 
     it('reads calls, parentheses and negation', () => {
-      const { statements, diagnostics } = parse('let q = -(synodic(jupiter, saturn) - period(b)) * frequency(c)');
+      const { statements, diagnostics } = parse('let q = -(synodic(jupiter, saturn) - period(b)) * frequency(c) + abs(x)');
       assert.deepEqual(diagnostics, []);
-      assert.equal(show(stmt(statements[0], 'let').expr), '(-(synodic(jupiter, saturn) - period(b)) * frequency(c))');
+      assert.equal(show(stmt(statements[0], 'let').expr), '((-(synodic(jupiter, saturn) - period(b)) * frequency(c)) + abs(x))');
     });
 
     it('gives a binary expression the range of both operands and a call the range up to its parenthesis', () => {
