@@ -47,6 +47,9 @@ export interface RelationPlan {
   /** Prefix table: sign-normalised vectors of motions 0 … hA−2 (zero vector first), for the per-trial walk. */
   readonly coeffP: Int8Array;
   readonly sizeP: number;
+  /** Prefix table of B: every vector of its first hB − 1 motions, in table B's odometer order. */
+  readonly coeffQ: Int8Array;
+  readonly sizeQ: number;
 }
 
 /**
@@ -80,10 +83,12 @@ export function planRelationSearch(bodies: number, bound: number): RelationPlan 
     }
   }
   const coeffP = enumerate(hA - 1, bound, true);
+  const coeffQ = enumerate(hB - 1, bound, false);
   return {
     bodies, bound, combinations: (base ** bodies - 1) / 2, hA, hB,
     coeffA, sizeA: coeffA.length / hA, coeffB, sizeB, positiveB,
     coeffP, sizeP: hA > 1 ? coeffP.length / (hA - 1) : 1,
+    coeffQ, sizeQ: hB > 1 ? coeffQ.length / (hB - 1) : 1,
   };
 }
 
@@ -168,7 +173,7 @@ class Workspace {
 
   /** Partial sums and largest terms of table B for these motions, bucket-sorted by sum. */
   loadB(n: ArrayLike<number>): void {
-    const { hA, hB, coeffB, sizeB, bound } = this.plan;
+    const { hA, hB, coeffQ, sizeQ, sizeB, bound } = this.plan;
     let range = 0, fastest = 0;
     for (let c = 0; c < hB; c++) {
       const v = Math.abs(n[hA + c]!);
@@ -184,19 +189,30 @@ class Workspace {
     const { sB, mB, bucketOf, sortedS, sortedM, sortedIdx, fill } = this;
     const count = this.start;
     count.fill(0);
-    for (let j = 0; j < sizeB; j++) {
-      let s = 0, mx = 0;
-      for (let c = 0; c < hB; c++) {
-        const t = coeffB[j * hB + c]! * n[hA + c]!;
-        s += t;
+    // Table B is in odometer order (last coefficient fastest): entry = prefix · (2K+1) + (k_last + K),
+    // so each sum is a prefix sum plus one term.
+    const hQ = hB - 1;
+    const nLast = n[hA + hQ]!;
+    let j = 0;
+    for (let q = 0; q < sizeQ; q++) {
+      let sq = 0, mq = 0;
+      for (let c = 0; c < hQ; c++) {
+        const t = coeffQ[q * hQ + c]! * n[hA + c]!;
+        sq += t;
         const at = t < 0 ? -t : t;
-        if (at > mx) mx = at;
+        if (at > mq) mq = at;
       }
-      sB[j] = s; mB[j] = mx;
-      const x = (s + range) * inv;
-      const bk = x <= 0 ? 0 : x >= top ? top : x | 0;
-      bucketOf[j] = bk;
-      count[bk + 1]! += 1;
+      for (let kc = -bound; kc <= bound; kc++, j++) {
+        const t = kc * nLast;
+        const at = t < 0 ? -t : t;
+        const s = sq + t;
+        sB[j] = s;
+        mB[j] = at > mq ? at : mq;
+        const x = (s + range) * inv;
+        const bk = x <= 0 ? 0 : x >= top ? top : x | 0;
+        bucketOf[j] = bk;
+        count[bk + 1]! += 1;
+      }
     }
     for (let bk = 0; bk < top + 1; bk++) count[bk + 1]! += count[bk]!;
     // Counting sort: `fill` walks each bucket's next free slot.
@@ -234,6 +250,8 @@ function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number): number
   const hP = hA - 1;
   const nLast = n[hP]!;
   let best = Infinity;
+  // lim = min(best, bound): a candidate must have |r| ≤ lim · max(term).
+  let lim = bound;
   for (let p = 0; p < sizeP; p++) {
     let sp = 0, mp = 0;
     for (let c = 0; c < hP; c++) {
@@ -248,23 +266,23 @@ function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number): number
       const at = t < 0 ? -t : t;
       const sa = sp + t;
       const ma = at > mp ? at : mp;
-      const eps = best < bound ? best : bound;
-      const half = eps * (ma > maxTermB ? ma : maxTermB);
-      let b0 = 0, b1 = topBucket;
-      if (half < range) {
-        const x = (range - sa) * inv;
-        const hw = half * inv;
-        const lo = x - hw, hi = x + hw;
-        b0 = lo <= 0 ? 0 : lo >= topBucket ? topBucket : lo | 0;
-        b1 = hi <= 0 ? 0 : hi >= topBucket ? topBucket : hi | 0;
-      }
+      const half = lim * (ma > maxTermB ? ma : maxTermB);
+      // Clamped bucket range of [target − half, target + half], without data-dependent branches
+      // (random motions make them unpredictable); half ≥ range clamps to every bucket.
+      const x = (range - sa) * inv;
+      const hw = half * inv;
+      const b0 = Math.max(0, Math.min(topBucket, x - hw)) | 0;
+      const b1 = Math.max(0, Math.min(topBucket, x + hw)) | 0;
       for (let j = start[b0]!, end = start[b1 + 1]!; j < end; j++) {
         const mb = sortedM[j]!;
         const mx = ma > mb ? ma : mb;
-        if (mx === 0) continue; // the zero vector
         const r = sa + sortedS[j]!;
-        const e = (r < 0 ? -r : r) / mx;
-        if (e <= bound && e < best) best = e;
+        const ar = r < 0 ? -r : r;
+        // mx = 0 only for the zero vector, which never passes (ar ≤ 0 · lim is excluded by mx > 0).
+        if (ar <= lim * mx && mx > 0) {
+          const e = ar / mx;
+          if (e < best) { best = e; lim = e; }
+        }
       }
     }
   }

@@ -1,0 +1,142 @@
+/**
+ * `synodic A B [from D to D]`: the synodic (beat) period of two bodies or periods, with its
+ * uncertainty; for two built-in planets also the actual intervals between heliocentric
+ * conjunctions over a span (default 1900–2100).
+ */
+import type { Statement } from '../../language/ast.js';
+import { Code } from '../../language/diagnostics.js';
+import { fail, type BuiltinBody, type EvalContext } from '../context.js';
+import type { Budget } from '../limits.js';
+import { ENGINE_LABEL, ORBIT_NOTES_VERSION } from '../provenance.js';
+import { defaultUnit, formatQuantity, formatSig, reciprocal, sigmaOf, toJson, type Quantity, type UnitDef } from '../quantity.js';
+import type { StatementResult, Table } from '../result.js';
+import { intervalStats, synodicPeriod, type IntervalStats } from '../synodic.js';
+import { formatUtcMinutes, instantFromCalendar, type Instant } from '../time.js';
+import { periodOperand, type PeriodOperand } from './operands.js';
+
+type SynodicStmt = Extract<Statement, { kind: 'synodic' }>;
+
+/** Default span of the interval statistics: 1900-01-01 to 2100-01-01 UTC. */
+export const DEFAULT_SYNODIC_SPAN_YEARS = { from: 1900, to: 2100 } as const;
+
+/** Built-in bodies that have heliocentric positions of their own (the Sun, Moon and barycentre do not orbit the Sun here). */
+const HELIOCENTRIC: ReadonlySet<BuiltinBody> = new Set<BuiltinBody>(['mercury', 'venus', 'earth', 'mars', 'jupiter', 'saturn', 'uranus', 'neptune', 'pluto']);
+
+/**
+ * Heliocentric conjunction times (TT, days since J2000, ascending) of two planets in a span,
+ * or undefined while the conjunction search is not part of this build. This is the one
+ * place that will call the conjunction search once it lands.
+ */
+export function heliocentricConjunctionTimes(_a: BuiltinBody, _b: BuiltinBody, _from: Instant, _to: Instant, _budget: Budget): readonly number[] | undefined {
+  return undefined;
+}
+
+/**
+ * Evaluate a `synodic` statement.
+ * @throws EvalError: operand errors (see {@link periodOperand}); OB302 for equal periods;
+ *   OB204 when a span is given but an operand has no ephemeris; OB401 for a span over the limit.
+ */
+export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResult {
+  const a = periodOperand(stmt.a, ctx, 'the first operand');
+  const b = periodOperand(stmt.b, ctx, 'the second operand');
+  let s: Quantity;
+  try {
+    s = synodicPeriod(a.period, b.period);
+  } catch (err) {
+    if (err instanceof RangeError) fail(Code.OutOfRange, `\`${a.label}\` and \`${b.label}\` have the same period: their synodic period is infinite`, stmt.range);
+    throw err;
+  }
+  const unit = defaultUnit(s);
+  const dayUnit: UnitDef = { name: 'd', dim: 'time', factor: 1 };
+  const alt = unit.name === 'd' && s.value >= 100 ? ` (${formatQuantity(s, { name: 'yr', dim: 'time', factor: 365.25 })})` : unit.name === 'yr' ? ` (${formatQuantity(s, dayUnit)})` : '';
+
+  const details = [
+    'Formula: 1/S = |1/Pa − 1/Pb| (the beat of two periods).',
+    `Pa = ${formatQuantity(a.period)} (${a.label})${a.body ? bodySource(a) : ''}`,
+    `Pb = ${formatQuantity(b.period)} (${b.label})${b.body ? bodySource(b) : ''}`,
+    `Beat frequency 1/S = ${formatQuantity(reciprocal(s))}`,
+    'Uncertainty: first order (GUM, JCGM 100:2008, §5.1), each input counted once, so operands that share an input are correlated correctly.',
+  ];
+  const tables: Table[] = [{
+    columns: ['quantity', 'value'],
+    rows: [['Pa', formatQuantity(a.period)], ['Pb', formatQuantity(b.period)], ['synodic period S', formatQuantity(s)]],
+    align: ['l', 'r'],
+  }];
+  const cautions: string[] = [];
+  const libraries = [`orbit-notes ${ORBIT_NOTES_VERSION}`];
+  let summary = `S = ${formatQuantity(s)}${alt}`;
+  let frame: string | undefined;
+
+  const aId = heliocentricId(a);
+  const bId = heliocentricId(b);
+  if (aId && bId) {
+    const from = stmt.span ? ctx.instant(stmt.span.from) : instantFromCalendar({ year: DEFAULT_SYNODIC_SPAN_YEARS.from, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, ctx.calendar);
+    const to = stmt.span ? ctx.instant(stmt.span.to) : instantFromCalendar({ year: DEFAULT_SYNODIC_SPAN_YEARS.to, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, ctx.calendar);
+    if (!(to.tt > from.tt)) fail(Code.OutOfRange, 'the end of the span must come after its start', stmt.span?.to.range ?? stmt.range);
+    ctx.budget.checkSpan(to.tt - from.tt);
+    const fromText = formatUtcMinutes(from, ctx.calendar).split(' ')[0]!;
+    const toText = formatUtcMinutes(to, ctx.calendar).split(' ')[0]!;
+    const spanText = `${fromText} to ${toText}`;
+    const times = heliocentricConjunctionTimes(aId, bId, from, to, ctx.budget);
+    if (times === undefined) {
+      details.push(`Actual intervals between conjunctions (${spanText}): not available in this version — the conjunction search is not part of this build.`);
+    } else {
+      libraries.push(ENGINE_LABEL);
+      frame = 'heliocentric ecliptic longitude (as the conjunction search states)';
+      const stats = intervalStats(times);
+      if (!stats) {
+        details.push(`Actual intervals between conjunctions (${spanText}): fewer than two conjunctions in the span, no interval to measure.`);
+      } else {
+        summary += ` · actual ${yearOf(fromText)}–${yearOf(toText)}: ${intervalSummary(stats)}`;
+        tables.push(intervalTable(stats, s, spanText));
+        details.push(`Actual intervals: ${stats.intervals} intervals between ${stats.events} heliocentric conjunctions, ${spanText}; they differ from S because the orbits are eccentric.`);
+      }
+    }
+  } else if (stmt.span) {
+    const user = !aId ? a : b;
+    fail(Code.NoEphemeris, `\`${user.label}\` has no ephemeris: actual conjunction intervals need two built-in planets (leave out the span to get the synodic period alone)`, (user === a ? stmt.a : stmt.b).range);
+  }
+
+  return {
+    kind: 'synodic',
+    summary,
+    details,
+    tables,
+    provenance: { libraries, ...(frame ? { frame } : {}) },
+    cautions,
+    value: toJson(s, unit),
+  };
+}
+
+function heliocentricId(o: PeriodOperand): BuiltinBody | undefined {
+  return o.body?.kind === 'builtin' && HELIOCENTRIC.has(o.body.id) ? o.body.id : undefined;
+}
+
+function bodySource(o: PeriodOperand): string {
+  return o.body?.kind === 'builtin' ? ', mean sidereal period of the built-in table' : ', from its `body` definition';
+}
+
+function yearOf(isoDate: string): string {
+  return /^-?\d+/.exec(isoDate)?.[0] ?? isoDate;
+}
+
+function intervalSummary(st: IntervalStats): string {
+  return `mean ${formatSig(st.meanDays, 5)} d, spread ${formatSig(st.spreadDays, 2)} d, ${formatSig(st.minDays, 5)}–${formatSig(st.maxDays, 5)} d`;
+}
+
+function intervalTable(st: IntervalStats, s: Quantity, spanText: string): Table {
+  const d = (x: number): string => `${x.toFixed(2)} d`;
+  return {
+    title: `Intervals between heliocentric conjunctions, ${spanText}`,
+    columns: ['statistic', 'value'],
+    rows: [
+      ['conjunctions', String(st.events)],
+      ['mean interval', d(st.meanDays)],
+      ['spread (sample s.d.)', d(st.spreadDays)],
+      ['shortest', d(st.minDays)],
+      ['longest', d(st.maxDays)],
+      ['mean − S', `${(st.meanDays - s.value).toFixed(2)} d (σ of S: ${formatSig(sigmaOf(s), 2)} d)`],
+    ],
+    align: ['l', 'r'],
+  };
+}

@@ -1,0 +1,223 @@
+import { strict as assert } from 'node:assert';
+import type { Expr, Range, Statement } from '../../language/ast.js';
+import { Code } from '../../language/diagnostics.js';
+import { EvalError, type EvalContext } from '../../compute/context.js';
+import { Budget, CancelledError, DEFAULT_LIMITS, LimitError } from '../../compute/limits.js';
+import { lookupUnit, measured, type Quantity } from '../../compute/quantity.js';
+import { createRng } from '../../compute/random.js';
+import { gcd } from '../../compute/ratio.js';
+import {
+  bestScore, bestScoreExhaustive, planRelationSearch, readRelation, relationChance, searchRelations,
+  searchRelationsExhaustive, type FoundRelation,
+} from '../../compute/relation.js';
+import { evalRelation } from '../../compute/statements/relation.js';
+
+const R: Range = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
+
+/**
+ * Kepler-223 b, c, d, e: Mills et al. 2016, Nature 533, 509, periods in days (from memory).
+ * Published three-body angles: λb − 2λc + λd and λc − 3λd + 2λe (from memory).
+ */
+const KEPLER_223 = { b: 7.3845, c: 9.8456, d: 14.7887, e: 19.7257 };
+/**
+ * TOI-178 c … g: Leleu et al. 2021, A&A 649, A26, periods in days (from memory). Published
+ * Laplace angles of the consecutive triplets: (1, −4, 3), (2, −5, 3), (1, −3, 2) (from memory).
+ */
+const TOI_178 = { c: 3.238450, d: 6.557700, e: 9.961881, f: 15.231915, g: 20.709950 };
+
+const freqsOf = (periods: readonly number[]): number[] => periods.map((p) => 1 / p);
+const key = (r: FoundRelation): string => r.k.join(',');
+
+/** The best-ranked relation of a triplet that involves all three bodies (optionally only Σk = 0 ones). */
+function topInvolvingAll(periods: readonly number[], bound: number, zeroSumOnly = false): FoundRelation {
+  const found = searchRelations(freqsOf(periods), bound, 500);
+  const all = found.filter((r) => r.k.every((c) => c !== 0) && (!zeroSumOnly || r.k.reduce((a, b) => a + b, 0) === 0));
+  assert.ok(all.length > 0);
+  return all[0]!;
+}
+
+describe('integer relations among mean motions: published resonant chains', () => {
+  it('recovers the TOI-178 Laplace relations (1,−4,3), (2,−5,3), (1,−3,2) as the top relation of each consecutive triplet with |k| ≤ 5', () => {
+    const p = TOI_178;
+    assert.equal(key(topInvolvingAll([p.c, p.d, p.e], 5)), '1,-4,3');
+    assert.equal(key(topInvolvingAll([p.d, p.e, p.f], 5)), '2,-5,3');
+    assert.equal(key(topInvolvingAll([p.e, p.f, p.g], 5)), '1,-3,2');
+  });
+
+  it('recovers the Kepler-223 relation λc − 3λd + 2λe as the top relation of the triplet c, d, e with |k| ≤ 4', () => {
+    const p = KEPLER_223;
+    assert.equal(key(topInvolvingAll([p.c, p.d, p.e], 4)), '1,-3,2');
+  });
+
+  it('recovers the Kepler-223 relation λb − 2λc + λd as the top Σk = 0 relation of b, c, d; the only better one is the 4:3 pair relation minus it', () => {
+    const p = KEPLER_223;
+    const laplace = topInvolvingAll([p.b, p.c, p.d], 4, true);
+    assert.equal(key(laplace), '1,-2,1');
+    // Ranked by residual alone, 2λb − 2λc − λd (Σk = −1) edges ahead: it is (3,−4,0) − (1,−2,1),
+    // the near-exact 4:3 of b and c combined with the Laplace relation, and needs a pericentre term.
+    const top = topInvolvingAll([p.b, p.c, p.d], 4);
+    assert.equal(key(top), '2,-2,-1');
+    const ranked = searchRelations(freqsOf([p.b, p.c, p.d]), 4, 500).filter((r) => r.k.every((c) => c !== 0));
+    assert.equal(ranked.findIndex((r) => key(r) === '1,-2,1'), 1);
+  });
+
+  it('ranks the first-order pair commensurabilities of the whole Kepler-223 chain (4:3, 3:2, 4:3) among its best relations', () => {
+    const p = KEPLER_223;
+    const found = searchRelations(freqsOf([p.b, p.c, p.d, p.e]), 4, 40).map(key);
+    for (const k of ['3,-4,0,0', '0,2,-3,0', '0,0,3,-4']) assert.ok(found.includes(k), `${k} missing from ${found.slice(0, 10).join(' ')}`);
+  });
+});
+
+describe('integer relation search', () => {
+  it('lists the same relations in the same order as brute force over the whole box (seeded random motions, 2–6 bodies)', () => {
+    const rng = createRng(2024);
+    for (let t = 0; t < 25; t++) {
+      const m = 2 + (t % 5);
+      const bound = 1 + (t % 4);
+      const f = Array.from({ length: m }, () => Math.exp(rng.uniformIn(-4, 0)));
+      const fast = searchRelations(f, bound, 12);
+      const slow = searchRelationsExhaustive(f, bound, 12);
+      assert.deepEqual(fast.map(key), slow.map(key), `m=${m}, K=${bound}`);
+      const b = bestScore(f, bound);
+      // Scores are residuals over the largest term: summation order changes them by ~1e-16 absolute.
+      assert.ok(Math.abs(b - bestScoreExhaustive(f, bound)) <= 1e-13, `best score m=${m}, K=${bound}`);
+    }
+  });
+
+  it('lists only primitive relations with the first non-zero coefficient positive, never one twice', () => {
+    const found = searchRelations(freqsOf(Object.values(TOI_178)), 3, 50);
+    const seen = new Set<string>();
+    for (const r of found) {
+      assert.equal(r.k.reduce((g, c) => gcd(g, c), 0), 1, key(r));
+      assert.ok(r.k.find((c) => c !== 0)! > 0, key(r));
+      assert.ok(!seen.has(key(r)));
+      seen.add(key(r));
+    }
+    for (let i = 1; i < found.length; i++) assert.ok(found[i - 1]!.score <= found[i]!.score);
+  });
+
+  it('finds an exact commensurability with residual 0', () => {
+    const [r] = searchRelations([1 / 2, 1 / 3], 4, 1);
+    assert.equal(key(r!), '2,-3');
+    assert.ok(Math.abs(r!.residual) < 1e-15);
+  });
+
+  it('counts the search space before searching and refuses tables over the limit', () => {
+    assert.equal(planRelationSearch(7, 4).combinations, (9 ** 7 - 1) / 2);
+    assert.throws(() => planRelationSearch(8, 20), (e: unknown) => e instanceof LimitError && e.limit === 'up-to');
+    assert.throws(() => planRelationSearch(9, 4), RangeError);
+  });
+});
+
+describe('reading a relation', () => {
+  it('gives residual, circulation period and the pair-synodic form of λb − 2λc + λd with propagated uncertainty', () => {
+    const p = KEPLER_223;
+    const f = [p.b, p.c, p.d].map((x, i) => measured(1 / x, 1e-7, 'frequency', `n${i}`));
+    const r = readRelation([1, -2, 1], f);
+    const expected = 1 / p.b - 2 / p.c + 1 / p.d;
+    assert.ok(Math.abs(r.residual.value - expected) < 1e-15);
+    // σ² = (1² + 2² + 1²)·(10⁻⁷)² for independent motions (GUM eq. 10).
+    assert.ok(Math.abs(Math.sqrt([...r.residual.contrib.values()].reduce((a, c) => a + c * c, 0)) - Math.sqrt(6) * 1e-7) < 1e-20);
+    assert.ok(r.circulation && Math.abs(r.circulation.value - 1 / Math.abs(expected)) < 1e-6);
+    assert.equal(r.coefficientSum, 0);
+    // n_b − 2n_c + n_d = 1·(n_b − n_c) − 1·(n_c − n_d).
+    assert.deepEqual(r.pairs, [{ from: 0, to: 1, coefficient: 1 }, { from: 1, to: 2, coefficient: -1 }]);
+  });
+});
+
+describe('Monte-Carlo chance of a relation', () => {
+  it('is identical on rerun with the same seed and varies with the seed', () => {
+    const periods = Object.values(KEPLER_223);
+    const thresholds = searchRelations(freqsOf(periods), 4, 3).map((r) => r.score);
+    const a = relationChance(periods, 4, thresholds, 2000, 42);
+    const b = relationChance(periods, 4, thresholds, 2000, 42);
+    const c = relationChance(periods, 4, thresholds, 2000, 43);
+    assert.deepEqual(a.hits, b.hits);
+    assert.notDeepEqual(a.hits, c.hits);
+    assert.match(a.nullModel, /log-uniform in \[7\.3845, 19\.7257\]/);
+  });
+
+  it('gives small chances for the TOI-178 Laplace relations', () => {
+    const p = TOI_178;
+    const periods = [p.c, p.d, p.e];
+    const [best] = searchRelations(freqsOf(periods), 5, 1);
+    assert.equal(key(best!), '1,-4,3');
+    const ch = relationChance(periods, 5, [best!.score], 10_000, 1);
+    assert.ok(ch.hits[0]! / ch.trials < 0.05, `chance ${ch.hits[0]! / ch.trials}`);
+  });
+
+  it('matches the closed form for two motions with |k| ≤ 1, where the best relation is n₁ − n₂', () => {
+    // Null: two periods log-uniform on [L, H]; with K = 1 the best score is ε = 1 − P_min/P_max
+    // ((1, 1) scores > 1), so ε ≤ e ⇔ |U₁ − U₂| ≤ x = −ln(1 − e)/ln(H/L) for uniform U, and
+    // |U₁ − U₂| has the triangular density 2(1 − x): P = 1 − (1 − x)².
+    const [lo, hi] = [10, 20];
+    const thresholds = [0.05, 0.1, 0.3];
+    const trials = 20_000;
+    const ch = relationChance([lo, hi], 1, thresholds, trials, 3);
+    let worstZ = 0;
+    thresholds.forEach((e, i) => {
+      const x = -Math.log(1 - e) / Math.log(hi / lo);
+      const p = 1 - (1 - x) ** 2;
+      const z = Math.abs(ch.hits[i]! / trials - p) / Math.sqrt((p * (1 - p)) / trials);
+      worstZ = Math.max(worstZ, z);
+      assert.ok(z < 4, `ε ≤ ${e}: closed form ${p.toFixed(4)}, simulated ${ch.hits[i]! / trials}`);
+    });
+    console.log(`      worst |z| against the closed form: ${worstZ.toFixed(2)}`);
+  });
+
+  it('checks the trial limit first and stops when cancelled', () => {
+    const periods = Object.values(KEPLER_223);
+    const small = new Budget({ ...DEFAULT_LIMITS, maxTrials: 100 });
+    assert.throws(() => relationChance(periods, 4, [1e-3], 1000, 1, small), (e: unknown) => e instanceof LimitError && e.limit === 'max-trials');
+    let calls = 0;
+    const cancelled = new Budget(DEFAULT_LIMITS, { isCancelled: () => ++calls > 2 });
+    assert.throws(() => relationChance(periods, 4, [1e-3], 10_000, 1, cancelled), CancelledError);
+  });
+});
+
+describe('the relation statement', () => {
+  type RelStmt = Extract<Statement, { kind: 'relation' }>;
+  function numbersOnly(seed = 1): EvalContext {
+    let id = 0;
+    return {
+      calendar: 'mixed', seed, budget: new Budget(),
+      instant: () => { throw new Error('not used'); },
+      value: (e: Expr): Quantity => {
+        if (e.type !== 'number') throw new EvalError(Code.UnknownName, 'unknown name', e.range);
+        const u = lookupUnit(e.unit ?? 'd')!;
+        return measured(e.value * u.factor, (e.sigma ?? 0) * u.factor, u.dim, `lit${++id}`);
+      },
+      body: (x) => { throw new EvalError(Code.UnknownBody, 'no bodies here', x.range); },
+      series: () => { throw new Error('not used'); },
+      readText: () => Promise.reject(new Error('not used')),
+    };
+  }
+  const num = (value: number, sigma = 0.00001): Expr => ({ type: 'number', value, unit: 'd', sigma, range: R });
+  const stmt = (periods: readonly number[], extra: Partial<RelStmt> = {}): RelStmt => ({ kind: 'relation', bodies: periods.map((p) => num(p)), range: R, ...extra });
+
+  it('reports the best relation with residual, circulation, Σk flag, pair reading, chance, seed and cautions', () => {
+    const p = TOI_178;
+    const r = evalRelation(stmt([p.c, p.d, p.e], { upTo: 5, top: 3 }), numbersOnly());
+    assert.match(r.summary, /^best: λ\(3\.23845 d ± 0\.00001\) − 4λ\(6\.5577 d ± 0\.00001\) \+ 3λ\(9\.961881 d ± 0\.00001\)/);
+    assert.match(r.summary, /Σk = 0/);
+    const t = r.tables[0]!;
+    assert.equal(t.rows.length, 3);
+    assert.equal(t.rows[0]![5], '0 (yes)');
+    assert.match(t.rows[0]![6]!, /S\(3\.23845 d ± 0\.00001,6\.5577 d ± 0\.00001\) : S\(6\.5577 d ± 0\.00001,9\.961881 d ± 0\.00001\) = 1 : 3/);
+    assert.equal(r.provenance.random, 'seed 1, 10000 trials');
+    assert.ok(r.cautions.some((c) => /not evidence of a physical resonance/.test(c)));
+    assert.ok(r.details.some((d) => /log-uniform/.test(d)));
+  });
+
+  it('gives the same chance on rerun with the same seed', () => {
+    const p = KEPLER_223;
+    const a = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
+    const b = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
+    assert.deepEqual(a.tables[0]!.rows.map((x) => x[7]), b.tables[0]!.rows.map((x) => x[7]));
+  });
+
+  it('refuses one motion, or the same operand twice', () => {
+    assert.throws(() => evalRelation(stmt([3]), numbersOnly()), (e: unknown) => e instanceof EvalError && e.code === Code.OutOfRange);
+    assert.throws(() => evalRelation(stmt([3, 3]), numbersOnly()), (e: unknown) => e instanceof EvalError && /listed twice/.test(e.message));
+  });
+});
