@@ -28,6 +28,14 @@ export const STATEMENT_OPTIONS: Readonly<Record<StatementKind, readonly string[]
   set: [],
 };
 
+/** What each statement takes before its options, for messages. */
+const OPERANDS: Readonly<Record<StatementKind, string>> = {
+  date: 'a date', let: 'a name, `=` and a value', body: 'a name', synodic: 'two bodies or periods',
+  ratio: 'two bodies or periods', relation: 'two or more bodies or periods', conjunctions: 'two bodies',
+  oppositions: 'one body', alignment: 'one or more bodies', barycentre: 'no operands', series: 'a name',
+  periodogram: 'a series name', set: 'a setting',
+};
+
 /** Every option word of every statement, plus `to`. */
 export const OPTION_WORDS: readonly string[] = [...new Set([...Object.values(STATEMENT_OPTIONS).flat(), 'to'])];
 
@@ -406,27 +414,38 @@ class StatementParser {
   private clauses(kw: StatementKind, handlers: Record<string, () => void>, required: Record<string, string>): void {
     const seen = new Set<string>();
     const options = STATEMENT_OPTIONS[kw];
+    const listing = options.length > 0 ? ` Options of \`${kw}\`: ${options.join(', ')}` : '';
+    const isHandler = (t: Token): boolean => t.type === 'ident' && Object.hasOwn(handlers, t.text);
+    let skipped = false;
     for (;;) {
       const t = this.peek(true);
       if (t.type === 'eof') break;
-      const handler = t.type === 'ident' && Object.hasOwn(handlers, t.text) ? handlers[t.text] : undefined;
-      if (handler) {
+      if (isHandler(t)) {
         if (seen.has(t.text)) this.fatal(Code.BadOption, `${code(t.text)} is given twice`, t.start, t.end);
         seen.add(t.text);
         this.take(t);
-        handler();
+        handlers[t.text]!();
         continue;
       }
-      const listing = options.length > 0 ? ` Options of \`${kw}\`: ${options.join(', ')}` : '';
       if (t.type === 'ident') {
         const s = suggest(t.text, options);
-        this.fatal(Code.BadOption, `unknown option ${code(t.text)} for \`${kw}\`${meanHint(s)}${listing}`, t.start, t.end);
+        const takes = s === undefined ? ` (\`${kw}\` takes ${OPERANDS[kw]}, then options)` : '';
+        this.error(Code.BadOption, `unknown option ${code(t.text)} for \`${kw}\`${takes}${meanHint(s)}${listing}`, t.start, t.end);
+      } else {
+        this.error(Code.UnexpectedToken, `unexpected ${this.describe(t)} in \`${kw}\`; expected an option word.${listing}`, t.start, t.end);
       }
-      this.fatal(Code.UnexpectedToken, `unexpected ${this.describe(t)} in \`${kw}\`; expected an option word.${listing}`, t.start, t.end);
+      // Skip to the next option word, so that later mistakes in the line are reported too.
+      skipped = true;
+      this.take(t);
+      const looksLikeOption = (n: Token): boolean => isHandler(n) || (n.type === 'ident' && (n.text.includes('-') || suggest(n.text, options) !== undefined));
+      for (let n = this.peek(true); n.type !== 'eof' && !looksLikeOption(n); n = this.peek(true)) this.take(n);
     }
     const kwTok = this.keywordTok!;
-    for (const [clause, what] of Object.entries(required)) {
-      if (!seen.has(clause)) this.error(Code.MissingArgument, `\`${kw}\` needs ${what}`, kwTok.start, kwTok.end);
+    // After a skipped word, a "missing" clause is most likely that word mistyped: say it once.
+    if (!skipped) {
+      for (const [clause, what] of Object.entries(required)) {
+        if (!seen.has(clause)) this.error(Code.MissingArgument, `\`${kw}\` needs ${what}`, kwTok.start, kwTok.end);
+      }
     }
     if (this.failed) throw new Abort();
   }

@@ -140,6 +140,23 @@ describe('parseBlock', () => {
       assert.equal(d.message, 'unknown option `whithin` for `conjunctions` — did you mean `within`? Options of `conjunctions`: from, seen-from, within');
     });
 
+    it('reports every unknown option of a statement, not only the first', () => {
+      const { diagnostics, ranges } = parse('conjunctions venus mars from 2030 to 2040 ⟦whithin⟧ 5 deg ⟦seen-form⟧ earth');
+      assert.deepEqual(diagnostics.map((d) => [d.code, d.range]), [[Code.BadOption, ranges[0]], [Code.BadOption, ranges[1]]]);
+      assert.match(diagnostics[1]!.message, /did you mean `seen-from`\?/);
+    });
+
+    it('reports a mistyped required option once, not also as missing', () => {
+      const { diagnostics, ranges } = parse('oppositions mars ⟦frm⟧ 2030 to 2040');
+      assert.deepEqual(diagnostics.map((d) => [d.code, d.range]), [[Code.BadOption, ranges[0]]]);
+    });
+
+    it('says what the statement takes when a word is an extra operand', () => {
+      const d = only(parse('synodic a b c').diagnostics);
+      assert.equal(d.code, Code.BadOption);
+      assert.equal(d.message, 'unknown option `c` for `synodic` (`synodic` takes two bodies or periods, then options). Options of `synodic`: from');
+    });
+
     it('takes a word close to an option and followed by a number for a mistyped option in an operand list', () => {
       const { diagnostics, ranges } = parse('relation b c d ⟦tp⟧ 3');
       const d = only(diagnostics);
