@@ -1,10 +1,12 @@
 import { strict as assert } from 'node:assert';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Range, Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { Budget, LimitError } from '../../compute/limits.js';
 import { EvalError, type EvalContext } from '../../compute/context.js';
 import { meanAndSd, parseSeriesCsv, SeriesError, type SeriesSpec } from '../../compute/series.js';
-import { loadSeries } from '../../compute/statements/series.js';
+import { CSV_PARSE_VERSION, loadSeries } from '../../compute/statements/series.js';
 
 const at = (line: number, a: number, b: number): Range => ({ start: { line, character: a }, end: { line, character: b } });
 const STMT_RANGE = at(3, 0, 60);
@@ -123,6 +125,11 @@ describe('the series statement', () => {
     const plot = result.plots![0]!;
     assert.equal(plot.kind, 'line');
     assert.deepEqual(plot.series[0]!.x.slice(0, 2), [1990, 1991]);
+  });
+
+  it('names the installed csv-parse version in its provenance', () => {
+    const installed = (JSON.parse(readFileSync(join(__dirname, '../../node_modules/csv-parse/package.json'), 'utf8')) as { version: string }).version;
+    assert.equal(CSV_PARSE_VERSION, installed);
   });
 
   it('passes on the context’s error for a missing file, at the path', async () => {
