@@ -238,9 +238,11 @@ class Workspace {
  * per-trial fast path. Table A is not stored: its vectors are a prefix table over the first
  * hA − 1 motions times the last A motion's coefficient, walked with running sums; each is
  * matched against the bucketed table B at once.
- * @returns ε of the best relation, or Infinity when none is ≤ `bound`
+ * @param enough stop as soon as a relation scores ≤ this (the caller only compares with
+ *   thresholds ≥ it, so any such score counts the same)
+ * @returns ε of the best relation (or the first ≤ `enough`), or Infinity when none is ≤ `bound`
  */
-function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number): number {
+function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number, enough = -1): number {
   const { hA, bound: K, coeffP, sizeP } = ws.plan;
   const { sortedS, sortedM, start } = ws;
   const maxTermB = ws.maxTermB;
@@ -281,7 +283,10 @@ function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number): number
         // mx = 0 only for the zero vector, which never passes (ar ≤ 0 · lim is excluded by mx > 0).
         if (ar <= lim * mx && mx > 0) {
           const e = ar / mx;
-          if (e < best) { best = e; lim = e; }
+          if (e < best) {
+            best = e; lim = e;
+            if (e <= enough) return e;
+          }
         }
       }
     }
@@ -437,6 +442,7 @@ export function relationChance(periods: readonly number[], bound: number, thresh
   const logLo = Math.log(lo);
   const logSpan = Math.log(hi) - logLo;
   const cap = thresholds.length > 0 ? Math.max(...thresholds) : 0;
+  const floor = thresholds.length > 0 ? Math.min(...thresholds) : -1;
   const rng = createRng(seed);
   const ws = new Workspace(plan);
   const n = new Float64Array(periods.length);
@@ -445,7 +451,7 @@ export function relationChance(periods: readonly number[], bound: number, thresh
     budget?.tick(1);
     for (let c = 0; c < n.length; c++) n[c] = Math.exp(-(logLo + logSpan * rng.uniform()));
     ws.loadB(n);
-    bests[t] = bestScoreIn(ws, n, cap);
+    bests[t] = bestScoreIn(ws, n, cap, floor);
   }
   bests.sort();
   const hits = thresholds.map((eps) => upperBound(bests, eps));
