@@ -28,11 +28,15 @@ export class StatementSource {
 
   /** Document position of an offset in {@link text}; offsets past the end clamp to the last line's end. */
   position(offset: number): Position {
-    let seg = this.lines[0]!;
-    for (const l of this.lines) {
-      if (l.offset <= offset) seg = l;
-      else break;
+    // Binary search: a statement may run over many continuation lines.
+    let lo = 0;
+    let hi = this.lines.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (this.lines[mid]!.offset <= offset) lo = mid;
+      else hi = mid - 1;
     }
+    const seg = this.lines[lo]!;
     const character = Math.max(0, Math.min(offset - seg.offset, seg.text.length));
     return { line: seg.line, character };
   }
