@@ -2,6 +2,7 @@
 import type { Expr } from '../language/ast.js';
 import { Code, suggest } from '../language/diagnostics.js';
 import { fail, type ResolvedBody } from './context.js';
+import { synodicPeriod } from './synodic.js';
 import {
   abs, add, describeDim, DimensionError, div, lookupUnit, measured, mul, neg, newInputId, reciprocal, exact, type Quantity,
 } from './quantity.js';
@@ -90,7 +91,7 @@ export function evaluateExpr(e: Expr, scope: ExprScope): Quantity {
       }
       if (fn === 'synodic') {
         if (e.args.length !== 2) fail(Code.MissingArgument, '`synodic(a, b)` takes two bodies or periods', e.range);
-        return synodicPeriod(bodyArg(0), bodyArg(1), e.range);
+        return synodicAt(bodyArg(0), bodyArg(1), e.range);
       }
       if (fn === 'abs') {
         if (e.args.length !== 1) fail(Code.MissingArgument, '`abs(…)` takes one argument', e.range);
@@ -121,14 +122,12 @@ export function periodOperand(e: Expr, scope: ExprScope): Quantity {
   return fail(Code.DimensionMismatch, `expected a period (a time) or a frequency, got ${describeDim(q.dim)}`, e.range);
 }
 
-/** Synodic period 1/S = |1/Pa − 1/Pb| (e.g. Meeus 1998, ch. 36 note; any celestial-mechanics text). */
-export function synodicPeriod(pa: Quantity, pb: Quantity, range: Expr['range']): Quantity {
+/** Synodic period (compute/synodic.ts), with equal periods reported at the expression. */
+function synodicAt(pa: Quantity, pb: Quantity, range: Expr['range']): Quantity {
   try {
-    const fa = reciprocal(pa);
-    const fb = reciprocal(pb);
-    return reciprocal(abs(add(fa, fb, -1)));
+    return synodicPeriod(pa, pb);
   } catch (err) {
-    if (err instanceof RangeError) fail(Code.OutOfRange, 'the two periods are equal: their synodic period is infinite', range);
+    if (err instanceof RangeError) fail(Code.OutOfRange, err.message, range);
     throw err;
   }
 }

@@ -8,7 +8,10 @@ import type { EvalContext, Series } from '../context.js';
 import type { StatementResult } from '../result.js';
 import { evalDate } from './date.js';
 import { evalPeriodogram } from './periodogram.js';
+import { evalRatio } from './ratio.js';
+import { evalRelation } from './relation.js';
 import { loadSeries } from './series.js';
+import { evalSynodic } from './synodic.js';
 
 export type Handler<K extends StatementKind> =
   (stmt: Extract<Statement, { kind: K }>, ctx: EvalContext) => StatementResult | Promise<StatementResult>;
@@ -31,6 +34,9 @@ export interface Handlers {
 
 export const HANDLERS: Handlers = {
   date: evalDate,
+  synodic: evalSynodic,
+  ratio: evalRatio,
+  relation: evalRelation,
   series: loadSeries,
   periodogram: evalPeriodogram,
 };
