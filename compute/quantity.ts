@@ -204,7 +204,7 @@ export function formatQuantity(q: Quantity, unit: UnitDef = defaultUnit(q), digi
   if (!(s > 0) || !Number.isFinite(s)) return `${trimZeros(formatSig(v, digits))}${u}`;
   const decimals = Math.max(0, 1 - Math.floor(Math.log10(s)));
   if (decimals > 12) return `${formatSig(v, digits)} ± ${formatSig(s, 2)}${u}`;
-  return `${v.toFixed(decimals)} ± ${s.toFixed(decimals)}${u}`;
+  return `${v.toFixed(decimals).replace(/^-(0\.?0*)$/, '$1')} ± ${s.toFixed(decimals)}${u}`;
 }
 
 /** `2.500000` → `2.5`, `3.000` → `3` (exponent forms untouched). */
