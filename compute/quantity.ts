@@ -56,17 +56,17 @@ export const UNIT_NAMES: readonly string[] = [
  */
 export function lookupUnit(spelling: string): UnitDef | undefined {
   const s = spelling.trim();
-  if (s in TIME_UNITS) return { name: s, dim: 'time', factor: TIME_UNITS[s]! };
-  if (s in ANGLE_UNITS) return { name: s, dim: 'angle', factor: ANGLE_UNITS[s]! };
-  if (s in LENGTH_UNITS) return { name: s, dim: 'length', factor: LENGTH_UNITS[s]! };
+  if (Object.hasOwn(TIME_UNITS, s)) return { name: s, dim: 'time', factor: TIME_UNITS[s]! };
+  if (Object.hasOwn(ANGLE_UNITS, s)) return { name: s, dim: 'angle', factor: ANGLE_UNITS[s]! };
+  if (Object.hasOwn(LENGTH_UNITS, s)) return { name: s, dim: 'length', factor: LENGTH_UNITS[s]! };
   const slash = s.indexOf('/');
   if (slash >= 0) {
     const num = s.slice(0, slash).trim();
     const den = s.slice(slash + 1).trim();
-    const denF = TIME_UNITS[den];
+    const denF = Object.hasOwn(TIME_UNITS, den) ? TIME_UNITS[den] : undefined;
     if (denF === undefined) return undefined;
     if (num === '' || num === '1') return { name: s, dim: 'frequency', factor: 1 / denF };
-    const angF = ANGLE_UNITS[num];
+    const angF = Object.hasOwn(ANGLE_UNITS, num) ? ANGLE_UNITS[num] : undefined;
     if (angF !== undefined) return { name: s, dim: 'angular-rate', factor: angF / denF };
   }
   return undefined;
