@@ -3,7 +3,10 @@
  * uncertainty; for two built-in planets also the actual intervals between heliocentric
  * conjunctions over a span (default 1900–2100).
  */
-import type { Statement } from '../../language/ast.js';
+import type { Range, Statement } from '../../language/ast.js';
+import { PERIOD_SOURCE } from '../bodies.js';
+import { findConjunctions } from '../conjunctions.js';
+import { accuracyWarning, EphemerisError } from '../ephemeris.js';
 import { Code } from '../../language/diagnostics.js';
 import { fail, type BuiltinBody, type EvalContext } from '../context.js';
 import type { Budget } from '../limits.js';
@@ -22,13 +25,37 @@ export const DEFAULT_SYNODIC_SPAN_YEARS = { from: 1900, to: 2100 } as const;
 /** Built-in bodies that have heliocentric positions of their own (the Sun, Moon and barycentre do not orbit the Sun here). */
 const HELIOCENTRIC: ReadonlySet<BuiltinBody> = new Set<BuiltinBody>(['mercury', 'venus', 'earth', 'mars', 'jupiter', 'saturn', 'uranus', 'neptune', 'pluto']);
 
+/** Heliocentric conjunctions of two planets in a span, as the conjunction search reports them. */
+export interface ConjunctionTimes {
+  /** TT, days since J2000, ascending. */
+  readonly timesTt: readonly number[];
+  readonly frame: string;
+  readonly evaluations: number;
+  /** Accuracy warning for spans outside the ephemeris's good range, when there is one. */
+  readonly accuracy?: string;
+}
+
 /**
- * Heliocentric conjunction times (TT, days since J2000, ascending) of two planets in a span,
- * or undefined while the conjunction search is not part of this build. This is the one
- * place that will call the conjunction search once it lands.
+ * Heliocentric conjunction times of two planets in a span: the one place this statement
+ * calls the conjunction search (compute/conjunctions.ts).
+ * @throws EvalError OB302 for a pair the search cannot take, OB302 with the library's
+ *   sentence when the span leaves the ephemeris's range; LimitError, CancelledError as raised
  */
-export function heliocentricConjunctionTimes(_a: BuiltinBody, _b: BuiltinBody, _from: Instant, _to: Instant, _budget: Budget): readonly number[] | undefined {
-  return undefined;
+export function heliocentricConjunctionTimes(a: BuiltinBody, b: BuiltinBody, from: Instant, to: Instant, budget: Budget, range: Range): ConjunctionTimes {
+  if (a === 'ssb' || b === 'ssb') return fail(Code.NoEphemeris, 'the barycentre has no heliocentric longitude', range);
+  try {
+    const found = findConjunctions({ a, b, start: from, end: to, seenFrom: 'sun', budget });
+    const warn = accuracyWarning(from.ut, to.ut, [a, b]);
+    return {
+      timesTt: found.events.map((e) => e.instant.tt),
+      frame: found.frame,
+      evaluations: found.evaluations,
+      ...(warn ? { accuracy: warn.message } : {}),
+    };
+  } catch (err) {
+    if (err instanceof EphemerisError || err instanceof RangeError) fail(Code.OutOfRange, `actual conjunction intervals: ${err.message}`, range);
+    throw err;
+  }
 }
 
 /**
@@ -77,20 +104,17 @@ export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResul
     const fromText = formatUtcMinutes(from, ctx.calendar).split(' ')[0]!;
     const toText = formatUtcMinutes(to, ctx.calendar).split(' ')[0]!;
     const spanText = `${fromText} to ${toText}`;
-    const times = heliocentricConjunctionTimes(aId, bId, from, to, ctx.budget);
-    if (times === undefined) {
-      details.push(`Actual intervals between conjunctions (${spanText}): not available in this version — the conjunction search is not part of this build.`);
+    const found = heliocentricConjunctionTimes(aId, bId, from, to, ctx.budget, stmt.span?.from.range ?? stmt.range);
+    libraries.push(ENGINE_LABEL);
+    frame = found.frame;
+    if (found.accuracy) cautions.push(found.accuracy);
+    const stats = intervalStats(found.timesTt);
+    if (!stats) {
+      details.push(`Actual intervals between conjunctions (${spanText}): fewer than two conjunctions in the span, no interval to measure.`);
     } else {
-      libraries.push(ENGINE_LABEL);
-      frame = 'heliocentric ecliptic longitude (as the conjunction search states)';
-      const stats = intervalStats(times);
-      if (!stats) {
-        details.push(`Actual intervals between conjunctions (${spanText}): fewer than two conjunctions in the span, no interval to measure.`);
-      } else {
-        summary += ` · actual ${yearOf(fromText)}–${yearOf(toText)}: ${intervalSummary(stats)}`;
-        tables.push(intervalTable(stats, s, spanText));
-        details.push(`Actual intervals: ${stats.intervals} intervals between ${stats.events} heliocentric conjunctions, ${spanText}; they differ from S because the orbits are eccentric.`);
-      }
+      summary += ` · actual ${yearOf(fromText)}–${yearOf(toText)}: ${intervalSummary(stats)}`;
+      tables.push(intervalTable(stats, s, spanText));
+      details.push(`Actual intervals: ${stats.intervals} intervals between ${stats.events} heliocentric conjunctions, ${spanText} (${found.evaluations} ephemeris evaluations); they differ from S because the orbits are eccentric and the longitudes are of date.`);
     }
   } else if (stmt.span) {
     const user = !aId ? a : b;
@@ -113,7 +137,7 @@ function heliocentricId(o: PeriodOperand): BuiltinBody | undefined {
 }
 
 function bodySource(o: PeriodOperand): string {
-  return o.body?.kind === 'builtin' ? ', mean sidereal period of the built-in table' : ', from its `body` definition';
+  return o.body?.kind === 'builtin' ? `, mean sidereal period from the ${PERIOD_SOURCE}` : ', from its `body` definition';
 }
 
 function yearOf(isoDate: string): string {
@@ -135,7 +159,7 @@ function intervalTable(st: IntervalStats, s: Quantity, spanText: string): Table 
       ['spread (sample s.d.)', d(st.spreadDays)],
       ['shortest', d(st.minDays)],
       ['longest', d(st.maxDays)],
-      ['mean − S', `${(st.meanDays - s.value).toFixed(2)} d (σ of S: ${formatSig(sigmaOf(s), 2)} d)`],
+      ['mean − S', `${(st.meanDays - s.value).toFixed(2)} d${sigmaOf(s) > 0 ? ` (σ of S: ${formatSig(sigmaOf(s), 2)} d)` : ' (S from exact periods)'}`],
     ],
     align: ['l', 'r'],
   };
