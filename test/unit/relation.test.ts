@@ -1,10 +1,12 @@
 import { strict as assert } from 'node:assert';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Expr, Range, Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { EvalError, type EvalContext } from '../../compute/context.js';
 import { Budget, CancelledError, DEFAULT_LIMITS, LimitError } from '../../compute/limits.js';
 import { lookupUnit, measured, type Quantity } from '../../compute/quantity.js';
-import { createRng } from '../../compute/random.js';
+import { createRng, PURE_RAND_VERSION } from '../../compute/random.js';
 import { gcd } from '../../compute/ratio.js';
 import {
   bestScore, bestScoreExhaustive, planRelationSearch, readRelation, relationChance, searchRelations,
@@ -219,5 +221,31 @@ describe('the relation statement', () => {
   it('refuses one motion, or the same operand twice', () => {
     assert.throws(() => evalRelation(stmt([3]), numbersOnly()), (e: unknown) => e instanceof EvalError && e.code === Code.OutOfRange);
     assert.throws(() => evalRelation(stmt([3, 3]), numbersOnly()), (e: unknown) => e instanceof EvalError && /listed twice/.test(e.message));
+  });
+});
+
+describe('seeded random numbers (the Monte-Carlo source)', () => {
+  it('names the pure-rand version that is actually installed', () => {
+    const pkg = JSON.parse(readFileSync(join(__dirname, '../../node_modules/pure-rand/package.json'), 'utf8')) as { version: string };
+    assert.equal(PURE_RAND_VERSION, pkg.version);
+  });
+
+  it('repeats a sequence for a seed, and gives different streams for different seeds and streams', () => {
+    const take = (seed: number, stream = 0): number[] => { const r = createRng(seed, stream); return [r.uniform(), r.uniform(), r.uniform()]; };
+    assert.deepEqual(take(9), take(9));
+    assert.notDeepEqual(take(9), take(10));
+    assert.notDeepEqual(take(9), take(9, 1));
+  });
+
+  it('draws standard normal deviates with mean 0 and variance 1 within 5 standard errors', () => {
+    const r = createRng(31);
+    const n = 100_000;
+    let s1 = 0, s2 = 0;
+    for (let i = 0; i < n; i++) { const x = r.normal(); s1 += x; s2 += x * x; }
+    const mean = s1 / n;
+    const variance = s2 / n - mean * mean;
+    assert.ok(Math.abs(mean) < 5 / Math.sqrt(n), `mean ${mean}`);
+    // The variance of a sample variance of N(0, 1) is 2/n.
+    assert.ok(Math.abs(variance - 1) < 5 * Math.sqrt(2 / n), `variance ${variance}`);
   });
 });
