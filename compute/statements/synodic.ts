@@ -73,6 +73,7 @@ export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResul
     if (err instanceof RangeError) fail(Code.OutOfRange, `\`${a.label}\` and \`${b.label}\` have the same period: their synodic period is infinite`, stmt.range);
     throw err;
   }
+  if (!Number.isFinite(s.value)) fail(Code.OutOfRange, `the synodic period of \`${a.label}\` and \`${b.label}\` is not a finite number of days`, stmt.range);
   const unit = defaultUnit(s);
   const dayUnit: UnitDef = { name: 'd', dim: 'time', factor: 1 };
   const alt = unit.name === 'd' && s.value >= 100 ? ` (${formatQuantity(s, { name: 'yr', dim: 'time', factor: 365.25 })})` : unit.name === 'yr' ? ` (${formatQuantity(s, dayUnit)})` : '';
