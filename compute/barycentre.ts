@@ -9,12 +9,13 @@
  * by Brent's minimiser, and its dominant periods are read off a floating-mean Lomb–Scargle
  * periodogram of the sampled distance (compute/periodogram.ts).
  *
- * Pure: positions come in through {@link HeliocentricPlanets}; the budget is charged one unit per
- * planet position evaluated.
+ * Pure: positions come in through {@link HeliocentricPlanets} (the source charges the budget);
+ * {@link ephemerisPlanets} builds one on compute/ephemeris.ts.
  */
 import { findMinimum } from './brent.js';
-import type { Budget } from './limits.js';
-import { findPeaks, frequencyGrid, powerOnGrid, prepare, type FrequencyGrid, type Peak } from './periodogram.js';
+import { barycentreTerm, type BarycentrePlanet } from './ephemeris.js';
+import { Budget } from './limits.js';
+import { periodogram as lombScargle, type FrequencyGrid, type Peak } from './periodogram.js';
 import { AU_KM } from './quantity.js';
 
 /** Planets whose heliocentric positions are known, with their masses. */
@@ -26,15 +27,47 @@ export interface HeliocentricPlanets {
   /**
    * Heliocentric positions at a TT instant (days since J2000.0), in AU, written into `out` as
    * x, y, z per planet in the order of `planets` (x–y is the ecliptic plane of the frame).
+   * Charges its budget, if it has one; may throw the budget's and the ephemeris's errors.
    */
   positionsAu(ttDays: number, out: Float64Array): void;
+}
+
+/** The four giant planets: the members of the library's barycentre `ssb`. */
+export const GIANT_PLANETS: readonly BarycentrePlanet[] = ['jupiter', 'saturn', 'uranus', 'neptune'];
+/** All eight planets. */
+export const ALL_PLANETS: readonly BarycentrePlanet[] = ['mercury', 'venus', 'earth', 'mars', 'jupiter', 'saturn', 'uranus', 'neptune'];
+
+/** Obliquity of the ecliptic at J2000.0, 84381.406″ (IAU 2006; Capitaine, Wallace & Chapront 2003, A&A 412, 567). */
+const OBLIQUITY_J2000_RAD = (84381.406 / 3600) * (Math.PI / 180);
+
+/**
+ * Planets from the ephemeris adapter (compute/ephemeris.ts), rotated from the J2000 mean equator
+ * to the J2000 mean ecliptic (a rotation by the obliquity about x). One budget tick per planet.
+ */
+export function ephemerisPlanets(names: readonly BarycentrePlanet[], budget: Budget): HeliocentricPlanets {
+  const probe = new Budget();
+  const planets = names.map((name) => ({ name, massRatio: barycentreTerm(name, 0, probe).massRatio }));
+  const c = Math.cos(OBLIQUITY_J2000_RAD);
+  const sn = Math.sin(OBLIQUITY_J2000_RAD);
+  return {
+    planets,
+    frame: 'heliocentric geometric positions, J2000 mean ecliptic and equinox',
+    positionsAu(tt: number, out: Float64Array): void {
+      for (let i = 0; i < names.length; i++) {
+        const v = barycentreTerm(names[i]!, tt, budget);
+        out[3 * i] = v.xAu;
+        out[3 * i + 1] = c * v.yAu + sn * v.zAu;
+        out[3 * i + 2] = -sn * v.yAu + c * v.zAu;
+      }
+    },
+  };
 }
 
 /** The Sun's position relative to the barycentre, km. */
 export interface SunOffset { readonly xKm: number; readonly yKm: number; readonly zKm: number; readonly distanceKm: number }
 
-/** A function that gives the Sun's offset at a TT instant, charging the budget. */
-export function sunOffsetFunction(source: HeliocentricPlanets, budget?: Budget): (ttDays: number) => SunOffset {
+/** A function that gives the Sun's offset at a TT instant, in the frame of the source. */
+export function sunOffsetFunction(source: HeliocentricPlanets): (ttDays: number) => SunOffset {
   const k = source.planets.length;
   const out = new Float64Array(3 * k);
   let massSum = 0;
@@ -44,7 +77,6 @@ export function sunOffsetFunction(source: HeliocentricPlanets, budget?: Budget):
   }
   const scale = -AU_KM / (1 + massSum);
   return (tt: number): SunOffset => {
-    budget?.tick(k);
     source.positionsAu(tt, out);
     let x = 0, y = 0, z = 0;
     for (let i = 0; i < k; i++) {
@@ -71,6 +103,7 @@ export interface BarycentreOptions {
   readonly toTt: number;
   /** Sampling step, days (> 0). */
   readonly stepDays: number;
+  /** Charged by the periodogram (positions are charged by the source). */
   readonly budget?: Budget;
   /** Tolerance on the instants of turning points, days; default 1e-3. */
   readonly extremumToleranceDays?: number;
@@ -114,7 +147,7 @@ export function analyseBarycentre(source: HeliocentricPlanets, options: Barycent
   const count = Math.ceil((toTt - fromTt) / stepDays) + 1;
   if (count < 3) throw new RangeError('the span holds fewer than three steps: use a smaller step');
   let evaluations = 0;
-  const raw = sunOffsetFunction(source, budget);
+  const raw = sunOffsetFunction(source);
   const at = (tt: number): SunOffset => { evaluations += source.planets.length; return raw(tt); };
   const dist = (tt: number): number => at(tt).distanceKm;
 
@@ -159,11 +192,10 @@ export function analyseBarycentre(source: HeliocentricPlanets, options: Barycent
   let peaks: Peak[] = [];
   let periodogram: BarycentreAnalysis['periodogram'];
   if (maxP > minP && span >= 2 * minP) {
-    const prepared = prepare({ tDays: tt, values: distanceKm });
-    const grid = frequencyGrid(prepared.spanDays, minP, maxP);
-    const power = powerOnGrid(prepared, grid, budget);
-    peaks = findPeaks(prepared, grid, power, options.peaks ?? 5);
-    periodogram = { grid, power, minPeriodDays: minP, maxPeriodDays: maxP };
+    // The library routine checks the grid against the budget before any work.
+    const pg = lombScargle({ tDays: tt, values: distanceKm }, { minPeriodDays: minP, maxPeriodDays: maxP, peaks: options.peaks ?? 5, ...(budget ? { budget } : {}) });
+    peaks = [...pg.peaks];
+    periodogram = { grid: pg.grid, power: pg.power, minPeriodDays: minP, maxPeriodDays: maxP };
   }
   return {
     tt, xKm, yKm, zKm, distanceKm,

@@ -6,6 +6,8 @@
 import type { Statement, StatementKind } from '../../language/ast.js';
 import type { EvalContext, Series } from '../context.js';
 import type { StatementResult } from '../result.js';
+import { evalAlignment } from './alignment.js';
+import { evalBarycentre } from './barycentre.js';
 import { evalDate } from './date.js';
 import { evalPeriodogram } from './periodogram.js';
 import { evalRatio } from './ratio.js';
@@ -39,4 +41,6 @@ export const HANDLERS: Handlers = {
   relation: evalRelation,
   series: loadSeries,
   periodogram: evalPeriodogram,
+  alignment: evalAlignment,
+  barycentre: evalBarycentre,
 };

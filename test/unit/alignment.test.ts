@@ -1,7 +1,13 @@
 import { strict as assert } from 'node:assert';
 import fc from 'fast-check';
 import { findAlignments, scanAlignments, smallestArc, spreadRateBound, type AlignmentBody } from '../../compute/alignment.js';
+import { findConjunctions } from '../../compute/conjunctions.js';
+import { astronomyEngine, type PositionBody } from '../../compute/ephemeris.js';
 import { Budget, DEFAULT_LIMITS, LimitError } from '../../compute/limits.js';
+import { createNoteEvaluator, type NoteEvaluation } from '../../compute/note.js';
+import { instantFromCalendar } from '../../compute/time.js';
+import { createRequire } from 'node:module';
+import type { VsopPlanet } from './fullVsop87.js';
 
 const DEG = Math.PI / 180;
 const TWO_PI = 2 * Math.PI;
@@ -175,5 +181,137 @@ describe('alignment search', () => {
       }
       return true;
     }), { numRuns: 150, seed: 20261201 });
+  });
+});
+
+/** Longitudes from the ephemeris adapter, as the statement handler builds them (all bodies of one instant at once). */
+function adapterBodies(names: readonly PositionBody[], seenFrom: 'sun' | 'earth', opposite: readonly boolean[] = []): AlignmentBody[] {
+  let lastTt = NaN;
+  let lons: number[] = [];
+  const budget = new Budget();
+  return names.map((name, i) => {
+    const [lo, hi] = astronomyEngine.lonRateBounds(name, seenFrom);
+    return {
+      label: name, opposite: opposite[i] ?? false, minRateRadPerDay: lo, maxRateRadPerDay: hi,
+      longitudeRad: (tt: number) => {
+        if (tt !== lastTt) { lons = astronomyEngine.states(names, seenFrom, tt, false, budget).map((st) => st.lonRad); lastTt = tt; }
+        return lons[i]!;
+      },
+    };
+  });
+}
+
+const ttOf = (y: number, m = 1, d = 1): number => instantFromCalendar({ year: y, month: m, day: d, hour: 0, minute: 0, second: 0 }, 'mixed').tt;
+
+describe('alignment on real planets', function () {
+  this.timeout(120000);
+
+  describe('consistency with the conjunction search (two bodies, angle → 0)', () => {
+    const toleranceSeconds = 10;
+
+    it('puts the tightest instants of heliocentric Jupiter–Saturn windows at the conjunction times, 1000–3000', () => {
+      const from = instantFromCalendar({ year: 1000, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const to = instantFromCalendar({ year: 3000, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const conj = findConjunctions({ a: 'jupiter', b: 'saturn', start: from, end: to, seenFrom: 'sun', budget: new Budget() }).events;
+      const r = findAlignments(adapterBodies(['jupiter', 'saturn'], 'sun'), { angleRad: 0.01 * DEG, fromTt: from.tt, toTt: to.tt });
+      assert.equal(r.windows.length, conj.length);
+      let worst = 0;
+      r.windows.forEach((w, i) => { worst = Math.max(worst, Math.abs(w.tightestTt - conj[i]!.instant.tt) * 86400); });
+      console.log(`      ${conj.length} conjunctions; worst difference ${worst.toFixed(2)} s`);
+      assert.ok(worst < toleranceSeconds, `worst ${worst.toFixed(2)} s`);
+    });
+
+    it('puts the tightest instant of the geocentric Jupiter–Saturn window of 2020 at the conjunction in longitude', () => {
+      const from = instantFromCalendar({ year: 2020, month: 10, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const to = instantFromCalendar({ year: 2021, month: 3, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const conj = findConjunctions({ a: 'jupiter', b: 'saturn', start: from, end: to, seenFrom: 'earth', budget: new Budget() }).events;
+      const r = findAlignments(adapterBodies(['jupiter', 'saturn'], 'earth'), { angleRad: 0.05 * DEG, fromTt: from.tt, toTt: to.tt });
+      assert.equal(conj.length, 1);
+      assert.equal(r.windows.length, 1);
+      const dt = Math.abs(r.windows[0]!.tightestTt - conj[0]!.instant.tt) * 86400;
+      console.log(`      difference ${dt.toFixed(2)} s`);
+      assert.ok(dt < toleranceSeconds);
+    });
+  });
+
+  it('finds the windows of the four giant planets within 30° over 1000–3000 that full-VSOP87 longitudes give, edges within a day', () => {
+    // Independent longitudes: VSOP87 series B from astronomia, precessed to the mean ecliptic of date
+    // by its own precession routine (its `position`); the adapter uses the true ecliptic of date:
+    // nutation shifts every longitude alike and leaves the spread unchanged.
+    const load = createRequire(__filename);
+    const { Planet } = load('astronomia/planetposition') as { Planet: new (d: unknown) => { position(jde: number): { lon: number } } };
+    const names: VsopPlanet[] = ['jupiter', 'saturn', 'uranus', 'neptune'];
+    const planets = names.map((n) => { const m = load(`astronomia/data/vsop87B${n}`) as { default?: unknown }; return new Planet(m.default ?? m); });
+    const full: AlignmentBody[] = names.map((n, i) => {
+      const [lo, hi] = astronomyEngine.lonRateBounds(n, 'sun');
+      return { label: n, opposite: false, minRateRadPerDay: lo, maxRateRadPerDay: hi, longitudeRad: (tt) => planets[i]!.position(tt + 2451545).lon };
+    });
+    const opts = { angleRad: 30 * DEG, fromTt: ttOf(1000), toTt: ttOf(3000) };
+    const ours = findAlignments(adapterBodies(names, 'sun'), opts).windows;
+    const ref = findAlignments(full, opts).windows;
+    assert.equal(ours.length, ref.length);
+    assert.ok(ours.length >= 3);
+    const toleranceDays = 1;
+    const toleranceSpreadDeg = 0.03;
+    let worst = 0;
+    let worstSpreadDeg = 0;
+    ours.forEach((w, i) => {
+      worst = Math.max(worst, Math.abs(w.startTt - ref[i]!.startTt), Math.abs(w.endTt - ref[i]!.endTt));
+      worstSpreadDeg = Math.max(worstSpreadDeg, Math.abs(w.spreadRad - ref[i]!.spreadRad) / DEG);
+    });
+    console.log(`      ${ours.length} windows; worst edge difference ${worst.toFixed(3)} d, worst tightest-spread difference ${(worstSpreadDeg * 3600).toFixed(1)}″`);
+    assert.ok(worst < toleranceDays);
+    assert.ok(worstSpreadDeg < toleranceSpreadDeg);
+  });
+
+  describe('the statement', () => {
+    const fence = (body: string): string => `# note\n\n\`\`\`orbit\n${body}\n\`\`\`\n`;
+    const all = (e: NoteEvaluation) => e.blocks.flatMap((b) => b.statements);
+
+    it('reports windows with a table, events, a windows plot and the recurrence caution', async () => {
+      const e = await createNoteEvaluator().evaluate(fence('alignment jupiter saturn uranus neptune within 30 deg from 1000 to 3000'));
+      const s = all(e)[0]!;
+      assert.deepEqual(s.diagnostics, []);
+      const r = s.result!;
+      assert.match(r.summary, /^\d+ windows, longest [\d.]+ d \(from \d{4}-\d\d-\d\d\); tightest [\d.]+° on \d{4}-\d\d-\d\d$/);
+      assert.equal(r.tables[0]!.rows.length, r.events!.length);
+      const plot = r.plots![0]!;
+      assert.equal(plot.kind, 'windows');
+      assert.equal(plot.spans!.length, r.events!.length);
+      assert.ok(r.cautions.some((c) => /not a forecast of anything on Earth/.test(c)));
+      assert.match(r.provenance.frame!, /heliocentric/);
+    });
+
+    it('cautions about the Sun when a geocentric window has a body close to it', async () => {
+      const e = await createNoteEvaluator().evaluate(fence('alignment mercury venus within 3 deg from 2020 to 2022 seen-from earth'));
+      const r = all(e)[0]!.result!;
+      const elong = r.events!.map((ev) => ev.fields['least_elongation_deg'] as number);
+      assert.ok(elong.length > 0);
+      const near = elong.filter((x) => x < 15).length;
+      assert.equal(r.cautions.some((c) => /solar filter/.test(c)), near > 0);
+      assert.ok(near > 0, 'Mercury and Venus meet near the Sun at least once in 2020–2021');
+    });
+
+    it('puts a body after `against` on the far side: Earth against Jupiter seen from the Sun is Jupiter behind the Sun', async () => {
+      const e = await createNoteEvaluator().evaluate(fence('alignment earth against jupiter within 1 deg from 2020 to 2022'));
+      const r = all(e)[0]!.result!;
+      // Solar conjunction of Jupiter, 2021-01-29 (geocentric, within a day of the heliocentric event; from memory).
+      assert.match(r.events![0]!.utc, /^2021-01-29/);
+    });
+
+    it('refuses bodies it cannot align, a repeated body and a bad angle, with codes', async () => {
+      const text = [
+        'body veyra period 12 d',
+        'alignment sun jupiter within 5 deg from 2000 to 2010',
+        'alignment veyra jupiter within 5 deg from 2000 to 2010',
+        'alignment jupiter jupiter within 5 deg from 2000 to 2010',
+        'alignment jupiter saturn within 200 deg from 2000 to 2010',
+        'alignment jupiter saturn within 5 d from 2000 to 2010',
+        'alignment earth mars within 5 deg from 2000 to 2010 seen-from earth',
+        'alignment ssb mars within 5 deg from 2000 to 2010',
+      ].join('\n');
+      const e = await createNoteEvaluator().evaluate(fence(text));
+      assert.deepEqual(all(e).slice(1).map((s) => s.diagnostics.map((d) => d.code).join(',')), ['OB302', 'OB204', 'OB302', 'OB302', 'OB301', 'OB302', 'OB204']);
+    });
   });
 });
