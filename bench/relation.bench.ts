@@ -49,7 +49,8 @@ export async function run(): Promise<BenchRow[]> {
     name: `relation 7 motions |k| ≤ ${BOUND} + ${TRIALS} trials (wall, median of 3)`, value: fastMs, unit: 'ms',
     baseline: naiveTotalMs, ratio: naiveTotalMs / fastMs, target: '< 2000 ms', pass: fastMs < 2000,
   });
-  rows.push({ name: 'same run, CPU time of this process', value: fastCpuMs, unit: 'ms' });
+  // CPU time of this process: the figure to judge when other work shares the machine.
+  rows.push({ name: 'same run, CPU time of this process', value: fastCpuMs, unit: 'ms', target: '< 2000 ms', pass: fastCpuMs < 2000 });
 
   const plan = planRelationSearch(PERIODS.length, BOUND);
   const trialMs = await timeMs(() => relationChance(PERIODS, BOUND, [1e-6], 1000, 2, undefined, plan), 3) / 1000;
