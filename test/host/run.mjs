@@ -10,7 +10,8 @@
 // --workspace DIR     folder to open (default test/host/workspace)
 // --no-trust-flag     start without --disable-workspace-trust (restricted-mode run);
 //                     sets ORBIT_HOST_RESTRICTED=1 for the suite
-// --screenshot FILE   after the suite, open the first Markdown note's preview and save a PNG
+// --screenshot FILE   after the suite, open a note's preview and save a PNG
+// --screenshot-note NOTE  the note to show (default: the workspace's first .md); its folder is opened
 // --timeout SECONDS   overall limit (default 300)
 // --grep PATTERN      only tests whose full title matches
 //
@@ -47,6 +48,9 @@ for (const [what, p] of [['Node 24', node24], ['VS Code server', serverEntry], [
 if (!fs.existsSync(suiteIndex)) fail(`${suiteIndex} not found: run \`npm run build\` first`);
 if (!fs.existsSync(workspace)) fail(`workspace ${workspace} does not exist`);
 
+// Tests write their notes under the workspace's git-ignored scratch/ folder.
+const scratch = path.join(workspace, 'scratch');
+fs.rmSync(scratch, { recursive: true, force: true });
 const logDir = path.join(cache, 'logs/run-last');
 fs.rmSync(logDir, { recursive: true, force: true });
 fs.mkdirSync(logDir, { recursive: true });
@@ -77,6 +81,7 @@ if (!ok) {
   if (fs.existsSync(serverLogs)) fs.cpSync(serverLogs, path.join(kept, 'server-logs'), { recursive: true });
   console.log(`host run failed${outcome.reason ? `: ${outcome.reason}` : ''} (${seconds} s); logs kept in ${kept}`);
 } else {
+  fs.rmSync(scratch, { recursive: true, force: true });
   console.log(`host run finished in ${seconds} s`);
 }
 fs.rmSync(state, { recursive: true, force: true });
@@ -187,11 +192,12 @@ async function runOnce() {
  * workspace in the preview and saves a PNG of the page.
  */
 async function screenshotPreview(page, authority, payload, file) {
-  const note = findMarkdown(workspace);
-  if (!note) throw new Error(`--screenshot: no .md file in ${workspace}`);
+  const note = args.screenshotNote ? path.resolve(args.screenshotNote) : findMarkdown(workspace);
+  if (!note || !fs.existsSync(note)) throw new Error(`--screenshot: no note to show (${note ?? `no .md file in ${workspace}`})`);
+  const folder = args.screenshotNote ? path.dirname(note) : workspace;
   // Same development extension, no tests: the workbench stays open.
   const devOnly = payload.filter(([k]) => k !== 'extensionTestsPath');
-  const url = `http://${authority}/?folder=${encodeURIComponent(workspace)}&payload=${encodeURIComponent(JSON.stringify(devOnly))}`;
+  const url = `http://${authority}/?folder=${encodeURIComponent(folder)}&payload=${encodeURIComponent(JSON.stringify(devOnly))}`;
   await page.goto(url, { waitUntil: 'domcontentloaded' });
   await page.locator('.monaco-workbench .part.editor').waitFor({ timeout: 60_000 });
   await page.locator('.explorer-folders-view .monaco-list-row').first().waitFor({ timeout: 60_000 });
@@ -204,7 +210,7 @@ async function screenshotPreview(page, authority, payload, file) {
     await page.keyboard.press('Enter');
     await quickInput.waitFor({ state: 'hidden', timeout: 15_000 });
   };
-  await pick('Control+P', path.relative(workspace, note), path.basename(note));
+  await pick('Control+P', path.relative(folder, note), path.basename(note));
   await page.locator(`.tabs-container .tab[aria-label*="${path.basename(note)}"]`).first().waitFor({ timeout: 30_000 });
   await pick('F1', 'Markdown: Open Preview to the Side', 'Open Preview to the Side');
   const frame = page.frameLocator('iframe.webview.ready').frameLocator('iframe#active-frame');
@@ -293,7 +299,7 @@ function closeStream(stream) {
 }
 
 function parseArgs(argv) {
-  const out = { workspace: undefined, noTrustFlag: false, screenshot: undefined, timeout: undefined, grep: undefined };
+  const out = { workspace: undefined, noTrustFlag: false, screenshot: undefined, screenshotNote: undefined, timeout: undefined, grep: undefined };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     const value = () => {
@@ -304,6 +310,7 @@ function parseArgs(argv) {
     if (a === '--workspace') out.workspace = value();
     else if (a === '--no-trust-flag') out.noTrustFlag = true;
     else if (a === '--screenshot') out.screenshot = value();
+    else if (a === '--screenshot-note') out.screenshotNote = value();
     else if (a === '--timeout') out.timeout = Number(value());
     else if (a === '--grep') out.grep = value();
     else fail(`unknown option ${a}`);

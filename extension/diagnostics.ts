@@ -1,0 +1,18 @@
+/** Publishes the core's diagnostics (stable codes) in the Problems panel after each evaluation. */
+import * as vscode from 'vscode';
+import { toDiagnostic } from './adapter.js';
+import type { EvaluationService } from './service.js';
+
+export function registerDiagnostics(service: EvaluationService): vscode.Disposable {
+  const collection = vscode.languages.createDiagnosticCollection('orbit-notes');
+  const publish = (uri: vscode.Uri): void => {
+    const evaluation = service.view(uri)?.evaluation;
+    collection.set(uri, evaluation ? evaluation.diagnostics.map(toDiagnostic) : []);
+  };
+  for (const v of service.views()) publish(v.uri);
+  return vscode.Disposable.from(
+    collection,
+    service.onDidEvaluate((v) => publish(v.uri)),
+    vscode.workspace.onDidCloseTextDocument((d) => collection.delete(d.uri)),
+  );
+}

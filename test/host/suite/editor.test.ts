@@ -1,0 +1,200 @@
+import * as assert from 'node:assert/strict';
+import { spawnSync } from 'node:child_process';
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
+import * as vscode from 'vscode';
+import { api, diagnosticsWhere, hoverText, lineOf, openNote, replaceInDocument, scratchFolder, RESTRICTED } from './helpers.js';
+
+const NOTE = [
+  '# Resonance sketch',
+  '',
+  'Two invented moons of an invented planet.',
+  '',
+  '```orbit',
+  'let inner = 10 d ± 0.01 d',
+  'let outer = inner * 2',
+  'body vela period 3.5 d',
+  '```',
+  '',
+  'Later, a second block uses the first one\'s names:',
+  '',
+  '```orbit second',
+  'let beat = outer - inner',
+  'let broken = missing * 2',
+  '```',
+  '',
+].join('\n');
+
+(RESTRICTED ? describe.skip : describe)('The editor on a note', function () {
+  this.timeout(60_000);
+  const folder = scratchFolder('editor');
+
+  it('shows each statement\'s result inline after its line', async () => {
+    const { doc } = await openNote(folder, 'inline.md', NOTE);
+    const texts = (await api()).inlineTexts(doc);
+    const at = (needle: string): string | undefined => texts.find((t) => t.line === lineOf(doc, needle))?.text;
+    assert.equal(at('let inner ='), '= inner = 10.000 ± 0.010 d');
+    assert.equal(at('let outer ='), '= outer = 20.000 ± 0.020 d');
+    // outer = 2·inner, so outer − inner is inner again, uncertainty included (correlated inputs).
+    assert.equal(at('let beat ='), '= beat = 10.000 ± 0.010 d');
+    assert.match(at('let broken =') ?? '', /^✗ OB201 /);
+  });
+
+  it('publishes the core\'s diagnostics with their codes and ranges', async () => {
+    const { doc } = await openNote(folder, 'diagnostics.md', NOTE);
+    const ds = await diagnosticsWhere(doc.uri, (d) => d.length > 0);
+    const unknown = ds.find((d) => d.code === 'OB201');
+    assert.ok(unknown, `OB201 among ${ds.map((d) => String(d.code)).join(', ')}`);
+    assert.equal(unknown.severity, vscode.DiagnosticSeverity.Error);
+    assert.equal(unknown.source, 'orbit-notes');
+    const line = lineOf(doc, 'let broken');
+    assert.equal(unknown.range.start.line, line);
+    assert.equal(doc.getText(unknown.range), 'missing');
+  });
+
+  it('hovers a statement with its result and provenance, and a name with its definition', async () => {
+    const { doc } = await openNote(folder, 'hover.md', NOTE);
+    const outerLine = lineOf(doc, 'let outer');
+    const onStatement = hoverText(await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', doc.uri, new vscode.Position(outerLine, 2)));
+    assert.match(onStatement, /outer = 20\.000 ± 0\.020 d/);
+    assert.match(onStatement, /Provenance/);
+    assert.match(onStatement, /orbit-notes 0\.1\.0/);
+    const beatLine = lineOf(doc, 'let beat');
+    const column = doc.lineAt(beatLine).text.indexOf('inner') + 2;
+    const onName = hoverText(await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', doc.uri, new vscode.Position(beatLine, column)));
+    assert.match(onName, new RegExp(`inner\\*\\* — defined on line ${lineOf(doc, 'let inner') + 1}`));
+    assert.match(onName, /10\.000 ± 0\.010 d/);
+  });
+
+  it('puts a lens above each block with its state and a command writing its results', async () => {
+    const { doc } = await openNote(folder, 'lens.md', NOTE);
+    const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', doc.uri);
+    const fences = [lineOf(doc, '```orbit'), lineOf(doc, '```orbit second')];
+    for (const [i, fence] of fences.entries()) {
+      const here = lenses.filter((l) => l.range.start.line === fence);
+      assert.ok(here.some((l) => l.command?.title.includes('results not written yet')), `state lens on line ${fence + 1}: ${here.map((l) => l.command?.title).join(' | ')}`);
+      const write = here.find((l) => l.command?.command === 'orbitNotes.writeBlockResults');
+      assert.ok(write, 'a Write Results lens');
+      assert.deepEqual(write.command?.arguments?.map(String), [doc.uri.toString(), String(i)]);
+    }
+    assert.ok(lenses.find((l) => l.range.start.line === fences[1])?.command?.title.includes('1 problem'));
+  });
+
+  it('completes keywords at a statement start, units after a number and names in expressions', async () => {
+    const { doc, editor } = await openNote(folder, 'completion.md', NOTE);
+    const line = lineOf(doc, 'let broken');
+    await editor.edit((b) => b.insert(new vscode.Position(line + 1, 0), '\nlet later = 4 \nlet other = \n'));
+    const labels = async (l: number, c: number): Promise<string[]> => {
+      const list = await vscode.commands.executeCommand<vscode.CompletionList>('vscode.executeCompletionItemProvider', doc.uri, new vscode.Position(l, c));
+      return list.items.map((i) => (typeof i.label === 'string' ? i.label : i.label.label));
+    };
+    const start = await labels(line + 1, 0);
+    for (const kw of ['synodic', 'conjunctions', 'relation', 'let', 'body']) assert.ok(start.includes(kw), `keyword ${kw} in ${start.join(',')}`);
+    const units = await labels(line + 2, 'let later = 4 '.length);
+    for (const u of ['d', 'yr', 'deg']) assert.ok(units.includes(u), `unit ${u} in ${units.join(',')}`);
+    const names = await labels(line + 3, 'let other = '.length);
+    for (const n of ['inner', 'outer', 'vela', 'jupiter']) assert.ok(names.includes(n), `name ${n} in ${names.join(',')}`);
+  });
+
+  it('renders the preview with each statement and its result, in place of nothing written', async () => {
+    const { doc } = await openNote(folder, 'preview.md', NOTE);
+    const html = await vscode.commands.executeCommand<string>('markdown.api.render', doc.getText());
+    assert.match(html, /class="orbit-block"/);
+    assert.match(html, /<span class="orbit-summary">outer = 20\.000 ± 0\.020 d<\/span>/);
+    assert.match(html, /OB201/);
+    // Other fences stay with the built-in renderer; the data-line attribute survives for scroll sync.
+    assert.match(html, /data-line="4"[^>]*class="[^"]*orbit-fence|class="[^"]*orbit-fence[^"]*"[^>]*data-line="4"/);
+  });
+
+  it('re-evaluates dependents after a definition is edited: inline, hover and preview', async () => {
+    const { doc } = await openNote(folder, 'edit.md', NOTE);
+    const next = (await api()).nextEvaluation(doc.uri);
+    await replaceInDocument(doc, 'let inner = 10 d', 'let inner = 12 d');
+    const view = await next;
+    assert.equal(view.stale, false);
+    const texts = (await api()).inlineTexts(doc);
+    assert.equal(texts.find((t) => t.line === lineOf(doc, 'let outer'))?.text, '= outer = 24.000 ± 0.020 d');
+    assert.equal(texts.find((t) => t.line === lineOf(doc, 'let beat'))?.text, '= beat = 12.000 ± 0.010 d');
+    const html = await vscode.commands.executeCommand<string>('markdown.api.render', doc.getText());
+    assert.match(html, /outer = 24\.000 ± 0\.020 d/);
+    assert.doesNotMatch(html, /outer = 20\.000/);
+    // Only the edited definition and its dependents were computed again.
+    assert.ok(view.evaluation && view.evaluation.reused >= 1, `reused ${view.evaluation?.reused}`);
+  });
+
+  it('writes exactly what the command line writes, and is idempotent', async () => {
+    const { doc } = await openNote(folder, 'write.md', NOTE);
+    const outcome = await vscode.commands.executeCommand<{ written: number }>('orbitNotes.writeResults', doc.uri);
+    assert.equal(outcome.written, 2);
+    // The command line on a copy of the same text, in a folder of its own.
+    const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'orbit-write-'));
+    const copy = path.join(tmp, 'note.md');
+    fs.writeFileSync(copy, NOTE);
+    const cli = path.join(vscode.extensions.getExtension('orbit-notes.orbit-notes')!.extensionPath, 'dist', 'cli.js');
+    // It exits 2 because the note has an error (OB201), after writing.
+    const run = spawnSync(process.execPath, [cli, 'write', copy], { encoding: 'utf8' });
+    assert.ok(run.status === 0 || run.status === 2, `orbit-notes write exited ${run.status}: ${run.stderr}`);
+    assert.equal(doc.getText(), fs.readFileSync(copy, 'utf8'));
+    fs.rmSync(tmp, { recursive: true, force: true });
+    const again = await vscode.commands.executeCommand<{ written: number }>('orbitNotes.writeResults', doc.uri);
+    assert.equal(again.written, 0);
+    const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', doc.uri);
+    assert.ok(lenses.some((l) => l.command?.title.includes('results written and current')));
+    const statuses = await vscode.commands.executeCommand<Array<{ state: string }>>('orbitNotes.checkNote', doc.uri);
+    assert.deepEqual(statuses.map((s) => s.state), ['current', 'current']);
+  });
+
+  it('re-evaluates a series when its data file is rewritten', async () => {
+    const data = vscode.Uri.joinPath(folder, 'flux.csv');
+    await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,1\n1,2\n2,3\n'));
+    const { doc } = await openNote(folder, 'series.md', '# Flux\n\n```orbit\nseries flux from "flux.csv" time t value v\n```\n');
+    const line = lineOf(doc, 'series flux');
+    const before = (await api()).inlineTexts(doc).find((t) => t.line === line)?.text ?? '';
+    assert.match(before, /3 samples/);
+    assert.match(before, /mean 2(\b|\.0)/);
+    const next = (await api()).nextEvaluation(doc.uri);
+    await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,10\n1,20\n2,30\n3,40\n'));
+    await next;
+    const after = (await api()).inlineTexts(doc).find((t) => t.line === line)?.text ?? '';
+    assert.match(after, /4 samples/);
+    assert.match(after, /mean 25(\b|\.0)/);
+  });
+
+  it('refuses data files outside the workspace', async () => {
+    // scratch/<test>/ is five folders below the repository root, which holds package.json.
+    const { doc } = await openNote(folder, 'outside.md', '```orbit\nseries s from "../../../../../package.json" time t value v\n```\n');
+    const ds = await diagnosticsWhere(doc.uri, (d) => d.length > 0);
+    assert.deepEqual(ds.map((d) => `${String(d.code)} ${d.message}`), [`OB404 \`../../../../../package.json\` lies outside the workspace ${vscode.workspace.workspaceFolders![0]!.uri.fsPath}; data files must be inside it`]);
+  });
+
+  it('renders markup and script in a note\'s blocks as inert text', async () => {
+    const hostile = [
+      '```orbit <img/src=x/onerror=alert(1)>',
+      'let x = 1 d  # <script>alert("comment")</script>',
+      'series s from "<script>alert(2)</script>.csv" time t value v',
+      'body <b>bold</b> period 2 d',
+      '```',
+      '',
+    ].join('\n');
+    const { doc } = await openNote(folder, 'hostile.md', hostile);
+    const html = await vscode.commands.executeCommand<string>('markdown.api.render', doc.getText());
+    assert.match(html, /orbit-block/);
+    assert.doesNotMatch(html, /<script>alert/);
+    assert.doesNotMatch(html, /<img/);
+    assert.match(html, /&lt;img\/src=x\/onerror=alert\(1\)&gt;/);
+    assert.doesNotMatch(html, /<b>bold<\/b>/);
+    assert.match(html, /&lt;script&gt;alert\(2\)&lt;\/script&gt;/);
+    const hovers = await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', doc.uri, new vscode.Position(lineOf(doc, 'series s'), 2));
+    for (const c of hovers.flatMap((h) => h.contents)) {
+      assert.ok(typeof c !== 'string' && 'value' in c);
+      const md = c as vscode.MarkdownString;
+      assert.notEqual(md.isTrusted, true);
+      assert.notEqual(md.supportHtml, true);
+    }
+    // Outside code spans (which show their text literally), no markup survives.
+    const prose = hoverText(hovers).replace(/(`+)[^`]*?\1/g, '');
+    assert.doesNotMatch(prose, /<script|<img|<b>/);
+    assert.match(hoverText(hovers), /&lt;script&gt;alert\(2\)/);
+  });
+});
