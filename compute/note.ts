@@ -170,7 +170,8 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
           reused += 1;
         }
         done += 1;
-        nextCache.set(stmtDigest, entry);
+        // A cancelled statement is not a result: leave it out of the cache so the next run computes it.
+        if (!entry.diagnostics.some((d) => d.code === Code.Cancelled)) nextCache.set(stmtDigest, entry);
         const lineShift = stmt.range.start.line - entry.line;
         const diagnostics = lineShift === 0 ? entry.diagnostics : entry.diagnostics.map((d) => shiftLines(d, lineShift));
         const definedName = definedNameOf(stmt);
