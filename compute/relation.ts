@@ -6,7 +6,7 @@
  * any unit of frequency, and it is the number of cycles of the fastest term per circulation of
  * the resonant angle, inverted: ε = 10⁻³ means the angle circulates once per ~1000 turns of
  * its fastest term. Multiples of a relation have the same ε, so only primitive relations
- * (gcd of the kᵢ = 1) with the first non-zero kᵢ positive are listed.
+ * (gcd of the kᵢ = 1) with the first non-zero kᵢ positive and at least two motions are listed.
  *
  * Search: meet in the middle (Horowitz & Sahni 1974 for subset sums). The coefficients of the
  * first ⌈m/2⌉ motions form table A (sign-normalised), the rest table B, whose partial sums are
@@ -335,7 +335,8 @@ export function searchRelations(freqs: readonly number[], bound: number, top: nu
       let g = 0, weight = 0;
       for (let c = 0; c < hA; c++) { k[c] = coeffA[i * hA + c]!; g = gcd(g, k[c]!); weight += Math.abs(k[c]!); }
       for (let c = 0; c < hB; c++) { k[hA + c] = coeffB[jb * hB + c]!; g = gcd(g, k[hA + c]!); weight += Math.abs(k[hA + c]!); }
-      if (g !== 1) continue; // a multiple of a primitive relation with the same score
+      // A multiple of a primitive relation has the same score; a unit vector (weight 1) involves one motion only.
+      if (g !== 1 || weight < 2) continue;
       insertRanked(kept, { k: k.slice(), residual: r, score: e, weight }, top);
     }
   }
@@ -375,7 +376,7 @@ export function searchRelationsExhaustive(freqs: readonly number[], bound: numbe
       g = gcd(g, v);
       weight += Math.abs(v);
     }
-    if (first > 0 && g === 1) insertRanked(kept, { k: k.slice(), residual: s, score: Math.abs(s) / mx, weight }, top);
+    if (first > 0 && g === 1 && weight >= 2) insertRanked(kept, { k: k.slice(), residual: s, score: Math.abs(s) / mx, weight }, top);
     for (let c = m - 1; c >= 0; c--) {
       if (k[c]! < bound) { k[c] = k[c]! + 1; break; }
       k[c] = -bound;

@@ -86,10 +86,13 @@ describe('integer relation search', () => {
     }
   });
 
-  it('lists only primitive relations with the first non-zero coefficient positive, never one twice', () => {
+  it('lists only primitive relations of two or more motions with the first non-zero coefficient positive, never one twice', () => {
     const found = searchRelations(freqsOf(Object.values(TOI_178)), 3, 50);
+    // Two motions, |k| ≤ 1: only (1,−1) and (1,1); (1,0) and (0,1) involve one motion.
+    assert.deepEqual(searchRelations([0.3, 0.2], 1, 10).map(key), ['1,-1', '1,1']);
     const seen = new Set<string>();
     for (const r of found) {
+      assert.ok(r.k.filter((c) => c !== 0).length >= 2, key(r));
       assert.equal(r.k.reduce((g, c) => gcd(g, c), 0), 1, key(r));
       assert.ok(r.k.find((c) => c !== 0)! > 0, key(r));
       assert.ok(!seen.has(key(r)));
@@ -216,6 +219,15 @@ describe('the relation statement', () => {
     const a = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
     const b = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
     assert.deepEqual(a.tables[0]!.rows.map((x) => x[7]), b.tables[0]!.rows.map((x) => x[7]));
+  });
+
+  it('reads a two-body first-order relation as a synodic period in units of the outer period', () => {
+    // 3n_b − 4n_c = 3·f(b,c) − n_c, so S(b,c) : P(c) = 3 : 1 (Kepler-223 b and c, periods above).
+    const r = evalRelation(stmt([KEPLER_223.b, KEPLER_223.c], { top: 1 }), numbersOnly());
+    const row = r.tables[0]!.rows[0]!;
+    assert.equal(row[1], '3λ(7.3845 d ± 0.00001) − 4λ(9.8456 d ± 0.00001)');
+    assert.match(row[6]!, /^3f\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) − n\(9\.8456 d ± 0\.00001\) ≈ 0, i\.e\. S\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) : P\(9\.8456 d ± 0\.00001\) = 3 : 1$/);
+    assert.equal(row[5], '-1');
   });
 
   it('refuses one motion, or the same operand twice', () => {
