@@ -87,5 +87,6 @@ function formatTerms(terms: readonly number[]): string {
 
 function signed(x: number): string {
   if (x === 0) return '0';
-  return `${x > 0 ? '+' : '−'}${formatSig(Math.abs(x), 3)}`;
+  // ASCII minus, as formatQuantity prints it, so that one table reads alike.
+  return `${x > 0 ? '+' : '-'}${formatSig(Math.abs(x), 3)}`;
 }
