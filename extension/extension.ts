@@ -26,6 +26,8 @@ export interface OrbitNotesApi {
   whenEvaluated(uri: vscode.Uri, timeoutMs?: number): Promise<NoteView>;
   /** Resolves with a note's view after the next evaluation applied from now on. */
   nextEvaluation(uri: vscode.Uri, timeoutMs?: number): Promise<NoteView>;
+  /** Fires on every change of a note's view: edits, progress, applied results. */
+  readonly onDidChangeView: vscode.Event<NoteView>;
   /** The inline texts shown for a document (decorations cannot be read back otherwise). */
   inlineTexts(doc: vscode.TextDocument): InlineText[];
 }
@@ -41,6 +43,7 @@ export function activate(context: vscode.ExtensionContext): OrbitNotesApi {
     extendMarkdownIt: (md) => md,
     whenEvaluated: () => Promise.reject(new Error('Orbit Notes did not start; see its output channel')),
     nextEvaluation: () => Promise.reject(new Error('Orbit Notes did not start; see its output channel')),
+    onDidChangeView: () => ({ dispose: () => undefined }),
     inlineTexts: () => [],
   };
   try {
@@ -62,6 +65,7 @@ export function activate(context: vscode.ExtensionContext): OrbitNotesApi {
       extendMarkdownIt: createPreviewPlugin(service),
       whenEvaluated: (uri, timeoutMs) => service.whenEvaluated(uri, timeoutMs),
       nextEvaluation: (uri, timeoutMs) => service.nextEvaluation(uri, timeoutMs),
+      onDidChangeView: service.onDidChange,
       inlineTexts: (doc) => inline.describe(doc),
     };
   } catch (err) {

@@ -6,6 +6,7 @@
 import * as assert from 'node:assert/strict';
 import * as vscode from 'vscode';
 import type { OrbitNotesApi } from '../../../extension/extension.js';
+import type { NoteView } from '../../../extension/service.js';
 
 export const EXTENSION_ID = 'orbit-notes.orbit-notes';
 
@@ -86,4 +87,18 @@ export function diagnosticsWhere(uri: vscode.Uri, test: (ds: readonly vscode.Dia
 
 export async function closeAllEditors(): Promise<void> {
   await vscode.commands.executeCommand('workbench.action.closeAllEditors');
+}
+
+/** Wait for a view change of `uri` that satisfies `test`, with a time limit. */
+export async function viewWhere(uri: vscode.Uri, test: (v: NoteView) => boolean, timeoutMs = 20_000): Promise<NoteView> {
+  const a = await api();
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => { sub.dispose(); reject(new Error(`the view of ${uri.path} did not reach the expected state within ${timeoutMs} ms`)); }, timeoutMs);
+    const sub = a.onDidChangeView((v) => {
+      if (v.uri.toString() !== uri.toString() || !test(v)) return;
+      clearTimeout(timer);
+      sub.dispose();
+      resolve(v);
+    });
+  });
 }
