@@ -8,6 +8,8 @@ import type { EvalContext, Series } from '../context.js';
 import type { StatementResult } from '../result.js';
 import { evalAlignment } from './alignment.js';
 import { evalBarycentre } from './barycentre.js';
+import { evalConjunctions } from './conjunctions.js';
+import { evalOppositions } from './oppositions.js';
 import { evalDate } from './date.js';
 import { evalPeriodogram } from './periodogram.js';
 import { evalRatio } from './ratio.js';
@@ -41,6 +43,8 @@ export const HANDLERS: Handlers = {
   relation: evalRelation,
   series: loadSeries,
   periodogram: evalPeriodogram,
+  conjunctions: evalConjunctions,
+  oppositions: evalOppositions,
   alignment: evalAlignment,
   barycentre: evalBarycentre,
 };
