@@ -27,6 +27,11 @@ export const MIN_RELATION_BODIES = 2;
 export const MAX_RELATION_BODIES = 8;
 /** Largest half table (entries) a search may build: bounds memory and time per trial. */
 export const MAX_HALF_TABLE = 1_000_000;
+/**
+ * Most table entries a Monte-Carlo estimate may walk in all (trials × (|A| + |B|)), checked
+ * before the first trial: about 5 s of work on one core (7 motions, |k| ≤ 4, 10⁴ trials is 4·10⁷).
+ */
+export const MAX_RELATION_WORK = 300_000_000;
 
 /** The precomputed coefficient tables of a search over m motions with |kᵢ| ≤ K. */
 export interface RelationPlan {
@@ -434,11 +439,18 @@ export interface RelationChance {
  * @param trials number of trials, checked against the budget's trial limit first
  * @param seed seed of the generator ({@link createRng})
  * @param budget ticked once per trial; cancellable
+ * @throws LimitError when the trials exceed the budget's trial limit, or the total work
+ *   {@link MAX_RELATION_WORK} (both checked before the first trial); CancelledError
  */
 export function relationChance(periods: readonly number[], bound: number, thresholds: readonly number[], trials: number, seed: number, budget?: Budget, plan = planRelationSearch(periods.length, bound)): RelationChance {
   checkFreqs(periods);
   if (!(Number.isInteger(trials) && trials >= 1)) throw new RangeError(`trials must be an integer ≥ 1, got ${trials}`);
   budget?.checkTrials(trials);
+  const work = trials * (plan.sizeA + plan.sizeB);
+  if (work > MAX_RELATION_WORK) {
+    throw new LimitError(`${trials} Monte-Carlo trials over ${periods.length} mean motions with |k| ≤ ${bound} would walk ${work.toExponential(1)} table entries (limit ${MAX_RELATION_WORK.toExponential(0)})`,
+      'up-to', 'lower `up-to` or list fewer bodies');
+  }
   const lo = Math.min(...periods);
   const hi = Math.max(...periods);
   const logLo = Math.log(lo);

@@ -174,6 +174,9 @@ describe('Monte-Carlo chance of a relation', () => {
     const periods = Object.values(KEPLER_223);
     const small = new Budget({ ...DEFAULT_LIMITS, maxTrials: 100 });
     assert.throws(() => relationChance(periods, 4, [1e-3], 1000, 1, small), (e: unknown) => e instanceof LimitError && e.limit === 'max-trials');
+    // 8 motions with |k| ≤ 8: 10⁴ trials over tables of 41 761 + 83 521 entries is counted and refused at once.
+    const eight = [3, 4, 5, 6, 7, 8, 9, 10];
+    assert.throws(() => relationChance(eight, 8, [1e-3], 10_000, 1), (e: unknown) => e instanceof LimitError && e.limit === 'up-to');
     let calls = 0;
     const cancelled = new Budget(DEFAULT_LIMITS, { isCancelled: () => ++calls > 2 });
     assert.throws(() => relationChance(periods, 4, [1e-3], 10_000, 1, cancelled), CancelledError);
