@@ -111,6 +111,8 @@ const NOTE = [
     const { doc } = await openNote(folder, 'edit.md', NOTE);
     const next = (await api()).nextEvaluation(doc.uri);
     await replaceInDocument(doc, 'let inner = 10 d', 'let inner = 12 d');
+    // Until the debounced evaluation lands, the old results stay, marked stale.
+    assert.deepEqual((await api()).inlineTexts(doc).find((t) => t.line === lineOf(doc, 'let outer')), { kind: 'stale', line: lineOf(doc, 'let outer'), text: '◌ = outer = 20.000 ± 0.020 d' });
     const view = await next;
     assert.equal(view.stale, false);
     const texts = (await api()).inlineTexts(doc);
@@ -143,6 +145,10 @@ const NOTE = [
     assert.ok(lenses.some((l) => l.command?.title.includes('results written and current')));
     const statuses = await vscode.commands.executeCommand<Array<{ state: string }>>('orbitNotes.checkNote', doc.uri);
     assert.deepEqual(statuses.map((s) => s.state), ['current', 'current']);
+    // The preview shows live results in place of the stored region, and says that it matches.
+    const html = await vscode.commands.executeCommand<string>('markdown.api.render', doc.getText());
+    assert.equal(html.match(/stored results match/g)?.length, 2);
+    assert.doesNotMatch(html, /orbit results ·/);
   });
 
   it('re-evaluates a series when its data file is rewritten', async () => {
