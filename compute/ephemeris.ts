@@ -319,10 +319,15 @@ class AstronomyEngineSource implements EphemerisSource {
       budget.tick();
       const lib = LIBRARY_BODY[b];
       if (seenFrom === 'sun') {
+        if (!withRates) {
+          // Position only: the cheaper call.
+          const h = guarded(b, b, tt, () => HelioVector(lib, time));
+          out.push(toState(b, seenFrom, tt, rotate(rot, { x: h.x, y: h.y, z: h.z }), undefined, undefined));
+          continue;
+        }
         const s = guarded(b, b, tt, () => HelioState(lib, time));
         const p = rotate(rot, { x: s.x, y: s.y, z: s.z });
-        const v = withRates ? rotate(rot, { x: s.vx, y: s.vy, z: s.vz }) : undefined;
-        out.push(toState(b, seenFrom, tt, p, v, p));
+        out.push(toState(b, seenFrom, tt, p, rotate(rot, { x: s.vx, y: s.vy, z: s.vz }), p));
       } else {
         const g = guarded(b, b, tt, () => GeoVector(lib, time, true));
         const p = rotate(rot, { x: g.x, y: g.y, z: g.z });
