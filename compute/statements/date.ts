@@ -39,7 +39,8 @@ export function evalDate(stmt: DateStmt, ctx: EvalContext): StatementResult {
     provenance: {
       libraries: [ENGINE_LABEL],
       timeScale: 'input read as UT (UTC for modern dates) unless marked TT',
-      deltaT: `ΔT = ${formatDeltaT(dT)} from the Espenak & Meeus (2006) polynomials${deltaTExtrapolated(i.ut) ? ' (extrapolated outside −500…2150)' : ''}`,
+      // The value itself is in the table; the provenance names the model, so that blocks with several dates list it once.
+      deltaT: `ΔT from the Espenak & Meeus (2006) polynomials${deltaTExtrapolated(i.ut) ? ', extrapolated outside −500…2150' : ''}`,
     },
     cautions: [],
     events: [{ jd_tt: jdT, utc: `${main.replace(' ', 'T')}Z`, fields: { jd_ut: jdU, delta_t_s: dT } }],

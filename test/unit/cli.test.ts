@@ -109,3 +109,11 @@ describe('the orbit-notes command line', function () {
     assert.equal(cli(['check', 'examples'], dir).code, 0);
   });
 });
+
+describe('the committed demo notes', function () {
+  this.timeout(120000);
+  it('hold results that a fresh evaluation reproduces exactly (orbit-notes check examples)', () => {
+    const r = spawnSync(process.execPath, [CLI, 'check', 'examples'], { cwd: ROOT, encoding: 'utf8' });
+    assert.equal(r.status, 0, `${r.stdout}\n${r.stderr}\n(run \`npm run demo\` and commit the notes after changing what they compute)`);
+  });
+});
