@@ -112,6 +112,10 @@ describe('the orbit-notes command line', function () {
 
 describe('the committed demo notes', function () {
   this.timeout(120000);
+  before(() => {
+    const b = spawnSync(process.execPath, ['esbuild.mjs'], { cwd: ROOT, encoding: 'utf8' });
+    assert.equal(b.status, 0, b.stderr);
+  });
   it('hold results that a fresh evaluation reproduces exactly (orbit-notes check examples)', () => {
     const r = spawnSync(process.execPath, [CLI, 'check', 'examples'], { cwd: ROOT, encoding: 'utf8' });
     assert.equal(r.status, 0, `${r.stdout}\n${r.stderr}\n(run \`npm run demo\` and commit the notes after changing what they compute)`);
