@@ -5,6 +5,11 @@ import { astronomyEngine, type EclipticState, type EphemerisSource, type Positio
 import { Budget, DEFAULT_LIMITS, LimitError } from '../../compute/limits.js';
 import { instantFromUt, isoUtc, jdTt, J2000_JD, type Instant } from '../../compute/time.js';
 import { vsop87Spherical, type VsopPlanet } from './fullVsop87.js';
+import { createNoteEvaluator } from '../../compute/note.js';
+import { HANDLERS } from '../../compute/statements/index.js';
+import { evalConjunctions } from '../../compute/statements/conjunctions.js';
+import { evalOppositions } from '../../compute/statements/oppositions.js';
+import { Code } from '../../language/diagnostics.js';
 
 const DEG = Math.PI / 180;
 const ARCSEC = DEG / 3600;
@@ -304,5 +309,74 @@ describe('limits', () => {
     assert.throws(() => findConjunctions({ a: 'moon', b: 'mars', seenFrom: 'sun', start: year(2000), end: year(2001), budget }), RangeError);
     assert.throws(() => findConjunctions({ a: 'mars', b: 'mars', seenFrom: 'earth', start: year(2000), end: year(2001), budget }), RangeError);
     assert.throws(() => findOppositions({ a: 'venus', start: year(2000), end: year(2001), budget }), RangeError);
+  });
+});
+
+describe('conjunction search at the edges of the calendar and with the Moon', () => {
+  it('works in the years 0–99, which a two-digit year would put in the 1900s', () => {
+    const r = findConjunctions({ a: 'jupiter', b: 'saturn', seenFrom: 'sun', start: instantFromUt(-2000 * 365.25), end: instantFromUt(-1900 * 365.25), budget: new Budget() });
+    assert.equal(r.events.length, 5);
+    for (const e of r.events) {
+      const y = 2000 + e.instant.ut / 365.25;
+      assert.ok(y > 0 && y < 100, `year ${y}`);
+    }
+  });
+
+  it('finds the new moon of the 2024 April 8 eclipse within 2 minutes', () => {
+    // New moon 2024-04-08 18:21 UTC (almanac phases of the Moon, from memory).
+    const toleranceMinutes = 2;
+    const r = findConjunctions({ a: 'moon', b: 'sun', seenFrom: 'earth', start: utc('2024-04-01T00:00Z'), end: utc('2024-04-15T00:00Z'), budget: new Budget() });
+    assert.equal(r.events.length, 1);
+    const err = (r.events[0]!.instant.ut - utc('2024-04-08T18:21Z').ut) / MINUTE;
+    console.log(`      new moon ${isoUtc(r.events[0]!.instant)} (${err.toFixed(2)} min), least separation ${(r.events[0]!.minSeparation!.separationRad / DEG * 60).toFixed(1)}′`);
+    assert.ok(Math.abs(err) <= toleranceMinutes);
+    // A total solar eclipse: the centres pass within the sum of the radii (≈ 32′).
+    assert.ok(r.events[0]!.minSeparation!.separationRad / DEG * 60 < 32);
+  });
+});
+
+describe('conjunctions and oppositions statements', () => {
+  const evaluator = createNoteEvaluator({ handlers: { ...HANDLERS, conjunctions: evalConjunctions, oppositions: evalOppositions } });
+  const block = (lines: string[]): string => ['# note', '', '```orbit', ...lines, '```', ''].join('\n');
+
+  it('summarises heliocentric conjunctions with count and mean interval, and a summary table', async () => {
+    const r = await evaluator.evaluate(block(['conjunctions jupiter saturn from 1900 to 2100']));
+    const s = r.blocks[0]!.statements[0]!;
+    assert.deepEqual(s.diagnostics, []);
+    assert.match(s.result!.summary, /^10 conjunctions, mean interval 19\.\d\d yr$/);
+    const summary = s.result!.tables[1]!;
+    assert.deepEqual(summary.rows.map((row) => row[0]), ['count', 'mean interval', 'min interval', 'max interval', 'longitude advance per event']);
+    assert.equal(s.result!.events!.length, 10);
+    assert.match(s.result!.events![6]!.utc, /^2020-11-02T/);
+    assert.match(s.result!.provenance.frame!, /ecliptic and equinox of date/);
+  });
+
+  it('prints the solar caution for a geocentric conjunction near the Sun', async () => {
+    const r = await evaluator.evaluate(block(['conjunctions venus sun from 2020-05-01 to 2020-07-01 seen-from earth']));
+    const res = r.blocks[0]!.statements[0]!.result!;
+    assert.ok(res.cautions.some((c) => /solar filter/.test(c)));
+    assert.deepEqual(res.tables[0]!.columns, ['#', 'UTC', 'JD TT', 'longitude', 'least separation', 'at (UTC)', 'elongation', 'side']);
+    assert.equal(res.events![0]!.fields.kind, 'inferior');
+  });
+
+  it('says that a user body has a period but no ephemeris', async () => {
+    const r = await evaluator.evaluate(block(['body k223b period 7.3845 d', 'conjunctions k223b mars from 2000 to 2001', 'oppositions k223b from 2000 to 2001']));
+    const codes = r.blocks[0]!.statements.slice(1).map((s) => s.diagnostics.map((d) => d.code));
+    assert.deepEqual(codes, [[Code.NoEphemeris], [Code.NoEphemeris]]);
+    assert.match(r.blocks[0]!.statements[1]!.diagnostics[0]!.message, /has a period but no ephemeris/);
+  });
+
+  it('refuses oppositions of an inferior planet with a hint', async () => {
+    const r = await evaluator.evaluate(block(['oppositions venus from 2000 to 2010']));
+    const d = r.blocks[0]!.statements[0]!.diagnostics[0]!;
+    assert.equal(d.code, Code.OutOfRange);
+    assert.match(d.message, /conjunctions venus sun/);
+  });
+
+  it('reports the accuracy of spans far from the present', async () => {
+    const r = await evaluator.evaluate(block(['conjunctions jupiter saturn from -2500 to -2400']));
+    const res = r.blocks[0]!.statements[0]!.result!;
+    assert.ok(res.cautions.some((c) => /leaves 1000–3000/.test(c)));
+    assert.ok(res.cautions.some((c) => /ΔT is extrapolated/.test(c)));
   });
 });
