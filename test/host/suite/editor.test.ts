@@ -67,6 +67,19 @@ const NOTE = [
     assert.match(onName, /10\.000 ± 0\.010 d/);
   });
 
+  it('hovers a date with its Julian Date and the ΔT used', async () => {
+    // J2000.0 is JD 2451545.0 (TT) by definition (IAU 1976; Meeus, Astronomical Algorithms, 2nd ed., ch. 7);
+    // 2000-01-01 12:00 UTC is therefore JD 2451545.0 in UT, with ΔT ≈ 64 s (from memory: 63.8 s).
+    const { doc } = await openNote(folder, 'date.md', '```orbit\ndate 2000-01-01T12:00Z\n```\n');
+    const text = hoverText(await vscode.commands.executeCommand<vscode.Hover[]>('vscode.executeHoverProvider', doc.uri, new vscode.Position(1, 1)));
+    assert.match(text, /JD 2451545\.00000 UT/);
+    const deltaT = /ΔT (\d+(?:\.\d+)?) s/.exec(text);
+    assert.ok(deltaT, `ΔT in ${text}`);
+    const toleranceSeconds = 1;
+    assert.ok(Math.abs(Number(deltaT[1]) - 63.8) <= toleranceSeconds, `ΔT ${deltaT[1]} s`);
+    assert.match(text, /astronomy-engine/);
+  });
+
   it('puts a lens above each block with its state and a command writing its results', async () => {
     const { doc } = await openNote(folder, 'lens.md', NOTE);
     const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', doc.uri);
@@ -149,6 +162,18 @@ const NOTE = [
     const html = await vscode.commands.executeCommand<string>('markdown.api.render', doc.getText());
     assert.equal(html.match(/stored results match/g)?.length, 2);
     assert.doesNotMatch(html, /orbit results ·/);
+  });
+
+  it('writes one block from its lens and leaves the other alone', async () => {
+    const { doc } = await openNote(folder, 'lens-write.md', NOTE);
+    const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', doc.uri);
+    const second = lenses.find((l) => l.range.start.line === lineOf(doc, '```orbit second') && l.command?.command === 'orbitNotes.writeBlockResults');
+    assert.ok(second?.command);
+    const outcome = await vscode.commands.executeCommand<{ written: number }>(second.command.command, ...(second.command.arguments ?? []));
+    assert.equal(outcome.written, 1);
+    const text = doc.getText();
+    assert.equal(text.match(/<!-- orbit results · /g)?.length, 1);
+    assert.ok(text.indexOf('<!-- orbit results · ') > text.indexOf('```orbit second'), 'the region is under the second block');
   });
 
   it('re-evaluates a series when its data file is rewritten', async () => {
