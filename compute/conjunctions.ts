@@ -46,6 +46,7 @@ export function wrapPi(a: number): number {
   return r;
 }
 
+/** What {@link findConjunctions} searches: two bodies, a span (TT instants), a viewpoint. */
 export interface ConjunctionQuery {
   readonly a: PositionBody;
   readonly b: PositionBody;
@@ -63,6 +64,7 @@ export interface ConjunctionQuery {
   readonly method?: 'monotone' | 'adaptive';
 }
 
+/** One conjunction in ecliptic longitude of date; angles in radians, distances in au. */
 export interface ConjunctionEvent {
   /** Instant of equal ecliptic longitude. */
   readonly instant: Instant;
@@ -82,6 +84,7 @@ export interface ConjunctionEvent {
   readonly kind?: 'inferior' | 'superior';
 }
 
+/** Events in ascending time, with the evaluations used, the frame and the method in words. */
 export interface ConjunctionSearchResult {
   readonly events: readonly ConjunctionEvent[];
   /** Ephemeris evaluations used (one per body per instant). */
@@ -91,6 +94,7 @@ export interface ConjunctionSearchResult {
   readonly methodKind: 'monotone' | 'adaptive';
 }
 
+/** What {@link findOppositions} searches: a superior planet and a span. */
 export interface OppositionQuery {
   readonly a: PositionBody;
   readonly start: Instant;
@@ -100,6 +104,7 @@ export interface OppositionQuery {
   readonly toleranceSeconds?: number;
 }
 
+/** One geocentric opposition (apparent longitudes of date 180° apart). */
 export interface OppositionEvent {
   readonly instant: Instant;
   /** Geocentric ecliptic longitude of date of the planet, radians. */
@@ -111,6 +116,7 @@ export interface OppositionEvent {
   readonly elongationRad: number;
 }
 
+/** Oppositions in ascending time, with the evaluations used, the frame and the method. */
 export interface OppositionSearchResult {
   readonly events: readonly OppositionEvent[];
   readonly evaluations: number;
