@@ -12,6 +12,7 @@ import type { NoteView } from './service.js';
 /** Diagnostics' `source`, as shown in the Problems panel. */
 export const DIAGNOSTIC_SOURCE = 'orbit-notes';
 
+/** A core range (0-based line, UTF-16 character) as an editor range; the two use the same coordinates. */
 export function toRange(r: CoreRange): vscode.Range {
   return new vscode.Range(r.start.line, r.start.character, r.end.line, r.end.character);
 }
@@ -22,6 +23,7 @@ const SEVERITY: Readonly<Record<Severity, vscode.DiagnosticSeverity>> = {
   information: vscode.DiagnosticSeverity.Information,
 };
 
+/** A core diagnostic as an editor one: same range and message, the stable code, source `orbit-notes`. */
 export function toDiagnostic(d: CoreDiagnostic): vscode.Diagnostic {
   const out = new vscode.Diagnostic(toRange(d.range), d.message, SEVERITY[d.severity]);
   out.code = d.code;

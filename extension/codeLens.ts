@@ -17,6 +17,7 @@ const STATE_TEXT: Readonly<Record<RegionState, string>> = {
   unclosed: '$(error) fence not closed',
 };
 
+/** Registers the block lenses; they refresh whenever a note's view changes. */
 export function registerCodeLenses(service: EvaluationService): vscode.Disposable {
   const changed = new vscode.EventEmitter<void>();
   const provider: vscode.CodeLensProvider = {

@@ -11,6 +11,7 @@ export const Commands = {
   showOutput: 'orbitNotes.showOutput',
 } as const;
 
+/** Any command identifier of the extension. */
 export type CommandId = (typeof Commands)[keyof typeof Commands];
 
 /** Commands that take arguments (from a code lens) and so stay out of the Command Palette. */

@@ -14,6 +14,7 @@ import { checkNote, writeNote, type WriteOutcome } from './writeback.js';
 const NOTE_GLOB = '**/*.md';
 const NOTE_EXCLUDE = '{**/node_modules/**,**/.git/**,**/.cache/**,**/dist/**,**/out/**}';
 
+/** Registers every command of {@link Commands}; the returned disposable unregisters them all. */
 export function registerCommands(service: EvaluationService, output: vscode.OutputChannel): vscode.Disposable {
   const handlers: Readonly<Record<CommandId, (...args: unknown[]) => unknown>> = {
     [Commands.writeResults]: async (uri?: unknown) => {

@@ -20,6 +20,7 @@ const KIND: Readonly<Record<CompletionKind, vscode.CompletionItemKind>> = {
 /** Words as the language spells them: `seen-from`, `up-to`, `deg/d`, `/yr`. */
 const WORD_RE = /[A-Za-z_/°][A-Za-z0-9_\-/°]*/;
 
+/** Registers completion for Markdown documents; it answers only inside `orbit` blocks. */
 export function registerCompletion(): vscode.Disposable {
   return vscode.languages.registerCompletionItemProvider({ language: 'markdown' }, {
     provideCompletionItems(doc, position) {

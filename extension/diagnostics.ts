@@ -3,6 +3,7 @@ import * as vscode from 'vscode';
 import { toDiagnostic } from './adapter.js';
 import type { EvaluationService } from './service.js';
 
+/** Keeps the Problems panel in step with each note's last applied evaluation; cleared on close. */
 export function registerDiagnostics(service: EvaluationService): vscode.Disposable {
   const collection = vscode.languages.createDiagnosticCollection('orbit-notes');
   const publish = (uri: vscode.Uri): void => {

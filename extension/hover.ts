@@ -16,6 +16,7 @@ import type { EvaluationService } from './service.js';
 const HOVER_TABLE_ROWS = 12;
 const NAME_RE = /[A-Za-z_][A-Za-z0-9_-]*/;
 
+/** Registers hovers for Markdown documents; they answer only on evaluated statements. */
 export function registerHovers(service: EvaluationService): vscode.Disposable {
   return vscode.languages.registerHoverProvider({ language: 'markdown' }, {
     provideHover(doc, position) {

@@ -19,11 +19,13 @@ export interface InlineText {
   readonly text: string;
 }
 
+/** The inline results feature: a disposable that can also describe what it shows. */
 export interface InlineResults extends vscode.Disposable {
   /** The inline texts of a document as last computed for its view. */
   describe(doc: vscode.TextDocument): InlineText[];
 }
 
+/** Registers the decoration types and keeps visible editors decorated as views change. */
 export function registerInlineResults(service: EvaluationService): InlineResults {
   const after = (color: string, fontStyle = 'normal'): vscode.DecorationRenderOptions => ({
     after: { color: new vscode.ThemeColor(color), margin: '0 0 0 2em', fontStyle },

@@ -10,6 +10,7 @@ import type { NoteEvaluation } from '../compute/note.js';
 /** Index of the cancel flag in a request's shared Int32Array; 1 means cancelled. */
 export const CANCEL_SLOT = 0;
 
+/** Messages from the extension host to the worker. */
 export type ToWorker =
   | {
     readonly type: 'evaluate';
@@ -25,6 +26,7 @@ export type ToWorker =
   | { readonly type: 'forget'; readonly key: string }
   | { readonly type: 'clearCaches' };
 
+/** Messages from the worker to the extension host. */
 export type FromWorker =
   | { readonly type: 'progress'; readonly id: number; readonly done: number; readonly total: number; readonly line: number }
   | { readonly type: 'read'; readonly id: number; readonly readId: number; readonly path: string }

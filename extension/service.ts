@@ -68,10 +68,12 @@ export function hasOrbitFence(text: string): boolean {
   return HAS_ORBIT_FENCE.test(text);
 }
 
+/** Whether a document can be a note: Markdown in a real or virtual file system (not diffs or output). */
 export function isNoteDocument(doc: vscode.TextDocument): boolean {
   return doc.languageId === 'markdown' && !['git', 'output', 'vscode-scm', 'comment'].includes(doc.uri.scheme);
 }
 
+/** One per extension activation: owns the worker, the notes' states and their events. */
 export class EvaluationService implements vscode.Disposable {
   private readonly notes = new Map<string, NoteState>();
   private readonly requests = new Map<number, Request>();

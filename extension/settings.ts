@@ -2,6 +2,7 @@
 import * as vscode from 'vscode';
 import { DEFAULT_LIMITS, type Limits } from '../compute/limits.js';
 
+/** The settings that shape evaluation and display, with units in their names. */
 export interface Settings {
   /** Show results at the end of statement lines. */
   readonly inlineEnabled: boolean;

@@ -10,6 +10,7 @@ import type { EvaluationService } from './service.js';
 /** A run longer than this gets a progress notification with a cancel button. */
 const LONG_RUN_MS = 1500;
 
+/** Registers the status bar item and the long-run progress notification. */
 export function registerStatus(service: EvaluationService): vscode.Disposable {
   const item = vscode.window.createStatusBarItem('orbitNotes.status', vscode.StatusBarAlignment.Left, 50);
   item.name = 'Orbit Notes';

@@ -11,6 +11,7 @@ import type { EvaluationService } from './service.js';
 /** Attempts before giving up on a note that keeps changing. */
 const WRITE_ATTEMPTS = 3;
 
+/** What a write did to one note. */
 export interface WriteOutcome {
   readonly uri: vscode.Uri;
   /** Regions written. */
