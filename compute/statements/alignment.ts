@@ -7,6 +7,7 @@ import type { Ident, Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { findAlignments, smallestArc, type AlignmentBody, type AlignmentWindow } from '../alignment.js';
 import { fail, type BuiltinBody, type EvalContext } from '../context.js';
+import type { Budget } from '../limits.js';
 import {
   accuracyWarning, angleBetweenRad, astronomyEngine, EphemerisError, type PositionBody, type Viewpoint,
 } from '../ephemeris.js';
@@ -28,6 +29,28 @@ const PLOT_SAMPLES = 600;
 
 /** A caution every alignment result carries. */
 export const RECURRENCE_NOT_FORECAST = 'An alignment, and the recurrence of alignments, is geometry: it is not a forecast of anything on Earth.';
+
+/**
+ * Bodies for compute/alignment.ts with longitudes (ecliptic of date) and rate bounds from the
+ * ephemeris adapter. All longitudes of one instant come from one call, since the search asks
+ * body by body at the same instant. The adapter charges `budget` one tick per body per instant.
+ */
+export function ephemerisAlignmentBodies(members: ReadonlyArray<{ readonly body: PositionBody; readonly opposite: boolean }>, seenFrom: Viewpoint, budget: Budget): AlignmentBody[] {
+  const names = members.map((m) => m.body);
+  let cachedTt = NaN;
+  let cachedLon: number[] = [];
+  const lonAt = (tt: number): number[] => {
+    if (tt !== cachedTt) {
+      cachedLon = astronomyEngine.states(names, seenFrom, tt, false, budget).map((s) => s.lonRad);
+      cachedTt = tt;
+    }
+    return cachedLon;
+  };
+  return members.map((m, i) => {
+    const [lo, hi] = astronomyEngine.lonRateBounds(m.body, seenFrom);
+    return { label: m.body, opposite: m.opposite, minRateRadPerDay: lo, maxRateRadPerDay: hi, longitudeRad: (tt: number) => lonAt(tt)[i]! };
+  });
+}
 
 /** The body as a position body for a viewpoint, or an EvalError saying why not. */
 function positionBody(id: Ident, ctx: EvalContext, seenFrom: Viewpoint): PositionBody {
@@ -84,21 +107,8 @@ export function evalAlignment(stmt: AlignmentStmt, ctx: EvalContext): StatementR
     }
   }
 
-  // All longitudes of one instant come from one call; the search asks body by body at the same instant.
   const bodiesList = members.map((m) => m.body);
-  let cachedTt = NaN;
-  let cachedLon: number[] = [];
-  const lonAt = (tt: number): number[] => {
-    if (tt !== cachedTt) {
-      cachedLon = astronomyEngine.states(bodiesList, seenFrom, tt, false, ctx.budget).map((s) => s.lonRad);
-      cachedTt = tt;
-    }
-    return cachedLon;
-  };
-  const alignmentBodies: AlignmentBody[] = members.map((m, i) => {
-    const [lo, hi] = astronomyEngine.lonRateBounds(m.body, seenFrom);
-    return { label: m.body, opposite: m.opposite, minRateRadPerDay: lo, maxRateRadPerDay: hi, longitudeRad: (tt: number) => lonAt(tt)[i]! };
-  });
+  const alignmentBodies = ephemerisAlignmentBodies(members, seenFrom, ctx.budget);
 
   let search;
   try {

@@ -5,6 +5,7 @@ import { findConjunctions } from '../../compute/conjunctions.js';
 import { astronomyEngine, type PositionBody } from '../../compute/ephemeris.js';
 import { Budget, DEFAULT_LIMITS, LimitError } from '../../compute/limits.js';
 import { createNoteEvaluator, type NoteEvaluation } from '../../compute/note.js';
+import { ephemerisAlignmentBodies } from '../../compute/statements/alignment.js';
 import { instantFromCalendar } from '../../compute/time.js';
 import { createRequire } from 'node:module';
 import type { VsopPlanet } from './fullVsop87.js';
@@ -184,21 +185,9 @@ describe('alignment search', () => {
   });
 });
 
-/** Longitudes from the ephemeris adapter, as the statement handler builds them (all bodies of one instant at once). */
-function adapterBodies(names: readonly PositionBody[], seenFrom: 'sun' | 'earth', opposite: readonly boolean[] = []): AlignmentBody[] {
-  let lastTt = NaN;
-  let lons: number[] = [];
-  const budget = new Budget();
-  return names.map((name, i) => {
-    const [lo, hi] = astronomyEngine.lonRateBounds(name, seenFrom);
-    return {
-      label: name, opposite: opposite[i] ?? false, minRateRadPerDay: lo, maxRateRadPerDay: hi,
-      longitudeRad: (tt: number) => {
-        if (tt !== lastTt) { lons = astronomyEngine.states(names, seenFrom, tt, false, budget).map((st) => st.lonRad); lastTt = tt; }
-        return lons[i]!;
-      },
-    };
-  });
+/** Longitudes from the ephemeris adapter, as the statement handler builds them. */
+function adapterBodies(names: readonly PositionBody[], seenFrom: 'sun' | 'earth'): AlignmentBody[] {
+  return ephemerisAlignmentBodies(names.map((body) => ({ body, opposite: false })), seenFrom, new Budget());
 }
 
 const ttOf = (y: number, m = 1, d = 1): number => instantFromCalendar({ year: y, month: m, day: d, hour: 0, minute: 0, second: 0 }, 'mixed').tt;
