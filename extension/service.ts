@@ -78,6 +78,8 @@ export class EvaluationService implements vscode.Disposable {
   private readonly notes = new Map<string, NoteState>();
   private readonly requests = new Map<number, Request>();
   private readonly disposables: vscode.Disposable[] = [];
+  /** One watcher per data file some note read (a watcher on one file is told reliably and cheaply). */
+  private readonly fileWatchers = new Map<string, vscode.Disposable>();
   private readonly changed = new vscode.EventEmitter<NoteView>();
   private readonly evaluated = new vscode.EventEmitter<NoteView>();
   private worker: Worker | undefined;
@@ -101,8 +103,6 @@ export class EvaluationService implements vscode.Disposable {
         if (e.affectsConfiguration('orbitNotes.limits')) this.reevaluateAll();
       }),
     );
-    const watcher = vscode.workspace.createFileSystemWatcher('**/*', true, false, false);
-    this.disposables.push(watcher, watcher.onDidChange((u) => this.onFileChanged(u)), watcher.onDidDelete((u) => this.onFileChanged(u)));
     for (const d of vscode.workspace.textDocuments) this.schedule(d, 0);
   }
 
@@ -186,6 +186,8 @@ export class EvaluationService implements vscode.Disposable {
     this.cancelAll();
     for (const s of this.notes.values()) clearTimeout(s.timer);
     for (const d of this.disposables) d.dispose();
+    for (const w of this.fileWatchers.values()) w.dispose();
+    this.fileWatchers.clear();
     void this.worker?.terminate();
     this.worker = undefined;
   }
@@ -267,6 +269,7 @@ export class EvaluationService implements vscode.Disposable {
       state.tracker = new LineTracker();
       state.stale = false;
       state.filesRead = request.filesRead;
+      this.updateFileWatchers();
       const ms = Date.now() - request.startedMs;
       if (evaluation.evaluated > 0) this.output.appendLine(`${shortName(state.uri)} v${request.version}: ${evaluation.evaluated} statement(s) evaluated, ${evaluation.reused} reused, ${ms} ms`);
     }
@@ -291,7 +294,24 @@ export class EvaluationService implements vscode.Disposable {
     clearTimeout(s.timer);
     if (s.running) Atomics.store(s.running.flag, CANCEL_SLOT, 1);
     this.notes.delete(key);
+    this.updateFileWatchers();
     this.post({ type: 'forget', key });
+  }
+
+  /** Watch exactly the data files the notes' last evaluations read. */
+  private updateFileWatchers(): void {
+    const wanted = new Set<string>();
+    for (const s of this.notes.values()) for (const f of s.filesRead) wanted.add(f);
+    for (const [f, w] of this.fileWatchers) {
+      if (!wanted.has(f)) { w.dispose(); this.fileWatchers.delete(f); }
+    }
+    for (const f of wanted) {
+      if (this.fileWatchers.has(f)) continue;
+      const uri = vscode.Uri.parse(f);
+      const watcher = vscode.workspace.createFileSystemWatcher(new vscode.RelativePattern(vscode.Uri.joinPath(uri, '..'), path.posix.basename(uri.path)), false, false, false);
+      const changed = (): void => this.onFileChanged(uri);
+      this.fileWatchers.set(f, vscode.Disposable.from(watcher, watcher.onDidChange(changed), watcher.onDidCreate(changed), watcher.onDidDelete(changed)));
+    }
   }
 
   private onFileChanged(uri: vscode.Uri): void {

@@ -4,7 +4,8 @@ import * as fs from 'node:fs';
 import * as os from 'node:os';
 import * as path from 'node:path';
 import * as vscode from 'vscode';
-import { api, diagnosticsWhere, hoverText, lineOf, openNote, replaceInDocument, scratchFolder, RESTRICTED } from './helpers.js';
+import type { NoteView } from '../../../extension/service.js';
+import { api, diagnosticsWhere, hoverText, lineOf, openNote, replaceInDocument, scratchFolder, RESTRICTED, viewWhere } from './helpers.js';
 
 const NOTE = [
   '# Resonance sketch',
@@ -176,6 +177,30 @@ const NOTE = [
     assert.ok(text.indexOf('<!-- orbit results · ') > text.indexOf('```orbit second'), 'the region is under the second block');
   });
 
+  it('keeps text typed while results are being written', async () => {
+    const { doc } = await openNote(folder, 'typing.md', NOTE);
+    const writing = vscode.commands.executeCommand<{ written: number; gaveUp: boolean }>('orbitNotes.writeResults', doc.uri);
+    await replaceInDocument(doc, 'Two invented moons', 'Two typed-in moons');
+    const outcome = await writing;
+    assert.equal(outcome.gaveUp, false);
+    const text = doc.getText();
+    assert.match(text, /Two typed-in moons/);
+    assert.equal(text.match(/<!-- orbit results · /g)?.length, 2);
+  });
+
+  it('hides inline results when orbitNotes.inline.enabled is off', async () => {
+    const { doc } = await openNote(folder, 'setting.md', NOTE);
+    const config = vscode.workspace.getConfiguration('orbitNotes');
+    assert.ok((await api()).inlineTexts(doc).length > 0);
+    await config.update('inline.enabled', false, vscode.ConfigurationTarget.Global);
+    try {
+      assert.deepEqual((await api()).inlineTexts(doc), []);
+    } finally {
+      await config.update('inline.enabled', undefined, vscode.ConfigurationTarget.Global);
+    }
+    assert.ok((await api()).inlineTexts(doc).length > 0);
+  });
+
   it('re-evaluates a series when its data file is rewritten', async () => {
     const data = vscode.Uri.joinPath(folder, 'flux.csv');
     await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,1\n1,2\n2,3\n'));
@@ -184,9 +209,10 @@ const NOTE = [
     const before = (await api()).inlineTexts(doc).find((t) => t.line === line)?.text ?? '';
     assert.match(before, /3 samples/);
     assert.match(before, /mean 2(\b|\.0)/);
-    const next = (await api()).nextEvaluation(doc.uri);
+    const seriesSummary = (v: NoteView): string => v.evaluation?.blocks[0]?.statements[0]?.result?.summary ?? '';
+    const rewritten = viewWhere(doc.uri, (v) => !v.stale && !v.running && /4 samples/.test(seriesSummary(v)));
     await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,10\n1,20\n2,30\n3,40\n'));
-    await next;
+    await rewritten;
     const after = (await api()).inlineTexts(doc).find((t) => t.line === line)?.text ?? '';
     assert.match(after, /4 samples/);
     assert.match(after, /mean 25(\b|\.0)/);
