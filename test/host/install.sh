@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Installs the offline VS Code host used by the integration tests (see VSCODE-HOST.md):
 # Debian chromium + krb5 headers, Node 24 and code-server into the git-ignored .cache/host/.
-# Idempotent: each part leaves a marker file and is skipped when the marker is there.
+# Idempotent: each part leaves a marker file and is skipped when the marker is there
+# (the server's marker names its version and Node's, so a version change reinstalls it).
 # Logs: .cache/host/logs/*.log (kept on failure; the failing step's tail is printed).
 set -euo pipefail
 
@@ -44,7 +45,7 @@ NODE24_VERSION="$(cat "$CACHE/node24/.installed")"
 
 # 3. The server, built with Node 24 first on PATH and node-gyp pointed at Node 24's headers
 #    (this machine's npm config points nodedir at the system Node's headers otherwise).
-if [[ ! -f "$CACHE/code-server/.installed" ]]; then
+if [[ "$(cat "$CACHE/code-server/.installed" 2>/dev/null)" != "$CODE_SERVER_VERSION node $NODE24_VERSION" ]]; then
   rm -rf "$CACHE/code-server"; mkdir -p "$CACHE/code-server"
   step "code-server@$CODE_SERVER_VERSION (builds native addons, ~2 min)" "$LOGS/code-server.log" \
     env PATH="$NODE_DIR/bin:$PATH" npm_config_nodedir="$NODE_DIR" \
