@@ -10,6 +10,7 @@ interface Manifest {
     menus?: { commandPalette?: Array<{ command: string; when?: string }> };
     configuration?: { properties: Record<string, { type: string; default: unknown; description: string; scope?: string }> };
     'markdown.markdownItPlugins'?: boolean;
+    grammars?: Array<{ scopeName: string; path: string; injectTo?: string[] }>;
   };
 }
 
@@ -52,5 +53,15 @@ describe('The extension manifest', () => {
       assert.ok(c, kind);
       if (c.supported === 'limited') assert.ok((c.description ?? '').length > 20, `${kind} states why`);
     }
+  });
+
+  it('contributes the orbit fence grammar as an injection into Markdown', () => {
+    const grammars = manifest.contributes.grammars ?? [];
+    assert.equal(grammars.length, 1);
+    const g = grammars[0]!;
+    assert.deepEqual(g.injectTo, ['text.html.markdown']);
+    const file = JSON.parse(readFileSync(new URL(`../../${g.path}`, import.meta.url), 'utf8')) as { scopeName: string; injectionSelector?: string };
+    assert.equal(file.scopeName, g.scopeName);
+    assert.equal(file.injectionSelector, 'L:markup.fenced_code.block.markdown');
   });
 });
