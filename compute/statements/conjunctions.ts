@@ -221,6 +221,8 @@ export function evalConjunctions(stmt: ConjunctionsStmt, ctx: EvalContext): Stat
     provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
     cautions,
     events: records,
+    // Shown in the editor's Problems panel too, not only in the caution text.
+    ...(validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {}),
   };
 }
 

@@ -81,5 +81,7 @@ export function evalOppositions(stmt: OppositionsStmt, ctx: EvalContext): Statem
     provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
     cautions,
     events: records,
+    // Shown in the editor's Problems panel too, not only in the caution text.
+    ...(validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {}),
   };
 }

@@ -90,6 +90,7 @@ export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResul
     rows: [['Pa', formatQuantity(a.period)], ['Pb', formatQuantity(b.period)], ['synodic period S', formatQuantity(s)]],
     align: ['l', 'r'],
   }];
+  const warnings: Array<{ code: string; message: string }> = [];
   const cautions: string[] = [];
   const libraries = [`orbit-notes ${ORBIT_NOTES_VERSION}`];
   let summary = `S = ${formatQuantity(s)}${alt}`;
@@ -108,7 +109,7 @@ export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResul
     const found = heliocentricConjunctionTimes(aId, bId, from, to, ctx.budget, stmt.span?.from.range ?? stmt.range);
     libraries.push(ENGINE_LABEL);
     frame = found.frame;
-    if (found.accuracy) cautions.push(found.accuracy);
+    if (found.accuracy) { cautions.push(found.accuracy); warnings.push({ code: Code.EphemerisAccuracy, message: found.accuracy }); }
     const stats = intervalStats(found.timesTt);
     if (!stats) {
       details.push(`Actual intervals between conjunctions (${spanText}): fewer than two conjunctions in the span, no interval to measure.`);
@@ -130,6 +131,7 @@ export function evalSynodic(stmt: SynodicStmt, ctx: EvalContext): StatementResul
     provenance: { libraries, ...(frame ? { frame } : {}) },
     cautions,
     value: toJson(s, unit),
+    ...(warnings.length > 0 ? { warnings } : {}),
   };
 }
 
