@@ -6,6 +6,7 @@
 import type { Ident, Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { findAlignments, smallestArc, type AlignmentBody, type AlignmentWindow } from '../alignment.js';
+import { findMinimum } from '../brent.js';
 import { fail, type BuiltinBody, type EvalContext } from '../context.js';
 import type { Budget } from '../limits.js';
 import {
@@ -169,10 +170,16 @@ export function evalAlignment(stmt: AlignmentStmt, ctx: EvalContext): StatementR
   const names = members.map((m) => (m.opposite ? `${m.body} (opposite)` : m.body)).join(', ');
   let summary: string;
   if (windows.length === 0) {
+    // The closest approach: Brent's minimiser around the lowest sample of the search.
     const s = search.samples!;
     let k = 0;
     for (let i = 1; i < s.spreadRad.length; i++) if (s.spreadRad[i]! < s.spreadRad[k]!) k = i;
-    summary = `no window: the spread stays above ${fmtDeg(angleRad, 1)} (smallest sampled ≈ ${fmtDeg(s.spreadRad[k]!, 1)} near ${when(s.tt[k]!).slice(0, 10)})`;
+    const spreadAt = (tt: number): number => smallestArc(alignmentBodies.map((b) => b.longitudeRad(tt) + (b.opposite ? Math.PI : 0))).spreadRad;
+    const lo = s.tt[Math.max(0, k - 1)]!;
+    const hi = s.tt[Math.min(s.tt.length - 1, k + 1)]!;
+    const closest = hi > lo ? findMinimum(spreadAt, lo, hi, 1e-4, k > 0 && k < s.tt.length - 1 ? { x: s.tt[k]!, fx: s.spreadRad[k]! } : undefined) : { x: s.tt[k]!, fx: s.spreadRad[k]! };
+    const best = closest.fx < s.spreadRad[k]! ? closest : { x: s.tt[k]!, fx: s.spreadRad[k]! };
+    summary = `no window: the spread stays above ${fmtDeg(angleRad, 1)} (lowest found ${fmtDeg(best.fx, 2)} on ${when(best.x).slice(0, 10)})`;
   } else {
     const longest = windows.reduce((a, b) => (b.endTt - b.startTt > a.endTt - a.startTt ? b : a));
     const tightest = windows.reduce((a, b) => (b.spreadRad < a.spreadRad ? b : a));

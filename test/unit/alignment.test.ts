@@ -271,6 +271,19 @@ describe('alignment on real planets', function () {
       assert.match(r.provenance.frame!, /heliocentric/);
     });
 
+    it('without a window, gives the lowest spread found, which is the tightest spread of the window a wider angle finds', async () => {
+      const e = await createNoteEvaluator().evaluate(fence([
+        'alignment jupiter saturn uranus neptune within 45 deg from 1850 to 2025',
+        'alignment jupiter saturn uranus neptune within 50 deg from 1850 to 2025',
+      ].join('\n')));
+      const [none, one] = all(e).map((s) => s.result!);
+      const m = /^no window: the spread stays above 45\.0° \(lowest found ([\d.]+)° on (\d{4}-\d\d-\d\d)\)$/.exec(none!.summary);
+      assert.ok(m, none!.summary);
+      assert.equal(one!.events!.length, 1);
+      assert.ok(Math.abs(Number(m[1]) - (one!.events![0]!.fields['spread_deg'] as number)) < 0.01);
+      assert.equal(m[2], one!.events![0]!.utc.slice(0, 10));
+    });
+
     it('cautions about the Sun when a geocentric window has a body close to it', async () => {
       const e = await createNoteEvaluator().evaluate(fence('alignment mercury venus within 3 deg from 2020 to 2022 seen-from earth'));
       const r = all(e)[0]!.result!;
