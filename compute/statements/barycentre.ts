@@ -27,18 +27,22 @@ const COMPARISON_SAMPLES = 400;
 /** Most turning points listed in the table. */
 const MAX_TURNING_ROWS = 200;
 
-/** Periods a practitioner compares the peaks with: sidereal periods of the giants and their pair synodic periods. */
+/**
+ * Periods a practitioner compares the peaks with: sidereal periods of the giants, their pair
+ * synodic periods, and the halves of both (a distance that swings twice per cycle, as with an
+ * eccentric orbit or two bodies passing on both sides, shows the first harmonic).
+ */
 function namedPeriods(): Array<{ label: string; periodDays: number }> {
-  const out: Array<{ label: string; periodDays: number }> = [];
+  const base: Array<{ label: string; periodDays: number }> = [];
   const p = GIANT_PLANETS.map((name) => ({ name, days: builtinPeriod(name)!.value }));
-  for (const a of p) out.push({ label: `period(${a.name})`, periodDays: a.days });
+  for (const a of p) base.push({ label: `period(${a.name})`, periodDays: a.days });
   for (let i = 0; i < p.length; i++) {
     for (let j = i + 1; j < p.length; j++) {
       // 1/S = |1/Pa − 1/Pb| (the synodic period).
-      out.push({ label: `synodic(${p[i]!.name}, ${p[j]!.name})`, periodDays: 1 / Math.abs(1 / p[i]!.days - 1 / p[j]!.days) });
+      base.push({ label: `synodic(${p[i]!.name}, ${p[j]!.name})`, periodDays: 1 / Math.abs(1 / p[i]!.days - 1 / p[j]!.days) });
     }
   }
-  return out;
+  return [...base, ...base.map((c) => ({ label: `${c.label} / 2`, periodDays: c.periodDays / 2 }))];
 }
 
 const fmtKm = (km: number): string => `${Math.round(km).toLocaleString('en-US')} km`;
@@ -166,7 +170,7 @@ export function evalBarycentre(stmt: BarycentreStmt, ctx: EvalContext): Statemen
       xLabel: 'period (yr)',
       yLabel: 'power (ZK09 standard, 0–1)',
       series: [{ label: 'distance', x: Array.from(pg.power, (_, k) => 1 / (pg.grid.f0PerDay + k * pg.grid.dfPerDay) / YEAR_DAYS), y: Array.from(pg.power) }],
-      markers: named.filter((c) => c.periodDays >= pg.minPeriodDays && c.periodDays <= pg.maxPeriodDays && c.label.startsWith('synodic(jupiter'))
+      markers: named.filter((c) => c.periodDays >= pg.minPeriodDays && c.periodDays <= pg.maxPeriodDays && c.label.startsWith('synodic(jupiter') && !c.label.endsWith('/ 2'))
         .map((c) => ({ x: c.periodDays / YEAR_DAYS, label: c.label })),
       xLog: true,
     });
@@ -189,7 +193,7 @@ export function evalBarycentre(stmt: BarycentreStmt, ctx: EvalContext): Statemen
       `Adding Mercury, Venus, the Earth–Moon pair and Mars would move the Sun by up to ${fmtKm(allPlanetsMaxKm)} over this span (compared at ${COMPARISON_SAMPLES + 1} instants).`,
       `The library’s own \`ssb\` vector adds each planet’s two-body shift mᵢ/(1 + mᵢ)·rᵢ instead; its distance differs from this one by up to ${fmtKm(libraryVectorMaxKm)} here.`,
       `Sampled every ${formatSig(stepDays, 4)} d (${analysis.tt.length} samples${stmt.step ? '' : ', the default of about 2000 samples'}); turning points refined by Brent’s minimiser (Brent 1973, chapter 5) to 0.001 d.`,
-      ...(pg ? [`Dominant periods: floating-mean Lomb–Scargle periodogram (Zechmeister & Kürster 2009) of the sampled distance over periods ${fmtYears(pg.minPeriodDays)} to ${fmtYears(pg.maxPeriodDays)}; the series is computed, not measured, so no false-alarm probability is given. Named periods from ${PERIOD_SOURCE}; synodic 1/S = |1/Pa − 1/Pb|.`] : []),
+      ...(pg ? [`Dominant periods: floating-mean Lomb–Scargle periodogram (Zechmeister & Kürster 2009) of the sampled distance over periods ${fmtYears(pg.minPeriodDays)} to ${fmtYears(pg.maxPeriodDays)}; the series is computed, not measured, so no false-alarm probability is given. Named periods (and their halves) from ${PERIOD_SOURCE}; synodic 1/S = |1/Pa − 1/Pb|.`] : []),
       `Solar radius: nominal, IAU 2015 Resolution B3 (${NOMINAL_SOLAR_RADIUS_KM.toLocaleString('en-US')} km); au = ${AU_KM.toLocaleString('en-US')} km (IAU 2012 B2).`,
       `${analysis.evaluations} planet positions for the analysis.`,
     ],
@@ -199,7 +203,7 @@ export function evalBarycentre(stmt: BarycentreStmt, ctx: EvalContext): Statemen
       timeScale: 'TT for positions; UTC shown',
       deltaT: `ΔT = ${formatDeltaT(deltaTSeconds(from.ut))} at the start of the span (Espenak & Meeus 2006 polynomials)`,
       frame: 'heliocentric geometric positions, J2000 mean ecliptic and equinox (x–y is the ecliptic plane)',
-      validity: 'truncated VSOP87: about 1′ (worst ≈ 100″) heliocentric over 1000–3000; against the full VSOP87, the offset agrees to about 100 km near the present and 200 km over 1000–3000 (test/unit/barycentre.test.ts)',
+      validity: 'truncated VSOP87: about 1′ (worst ≈ 100″) heliocentric over 1000–3000; against the full VSOP87 with IAU 2009 masses, the offset agrees to about 80 km over 1900–2100 and 250 km over 1000–3000 (test/unit/barycentre.test.ts)',
     },
     cautions: [
       'A cycle in the Sun’s barycentric motion is a property of the planets’ orbits; by itself it is not a forecast of solar activity or of anything on Earth.',
