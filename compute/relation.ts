@@ -1,18 +1,18 @@
 /**
  * Integer relations among mean motions: Σ kᵢ·nᵢ ≈ 0 with |kᵢ| ≤ K.
  *
- * Score (documented choice): the normalised residual ε = |Σ kᵢnᵢ| / maxᵢ |kᵢnᵢ|, the residual
- * frequency in units of the fastest term of the relation. It is dimensionless, the same for
- * any unit of frequency, and it is the number of cycles of the fastest term per circulation of
- * the resonant angle, inverted: ε = 10⁻³ means the angle circulates once per ~1000 turns of
- * its fastest term. Multiples of a relation have the same ε, so only primitive relations
- * (gcd of the kᵢ = 1) with the first non-zero kᵢ positive and at least two motions are listed.
+ * Score (the lead's decision, the literal reading of "ranked by residual"): the absolute
+ * residual frequency |Σ kᵢnᵢ|, smallest first, i.e. the circulation period 1/|Σ kᵢnᵢ| of the
+ * resonant angle Σ kᵢλᵢ, longest first: the slowest-circulating angle ranks first. Ties: smaller
+ * Σ|kᵢ| first. A multiple of a relation has a larger residual and says nothing new, so only
+ * primitive relations (gcd of the kᵢ = 1) with the first non-zero kᵢ positive and at least two
+ * non-zero kᵢ are listed.
  *
  * Search: meet in the middle (Horowitz & Sahni 1974 for subset sums). The coefficients of the
  * first ⌈m/2⌉ motions form table A (sign-normalised), the rest table B, whose partial sums are
- * bucket-sorted. For each entry of A only the B entries whose partial sum lies within
- * ε* · max(term) of the opposite value can beat the current bound ε*, so a whole search costs
- * about |A| + |B| ≈ (2K+1)^⌈m/2⌉ operations instead of (2K+1)^m.
+ * bucket-sorted. For an entry of A with partial sum a, only the B entries with partial sum in
+ * [−a − r*, −a + r*] can beat the current bound r*: an interval query on the sorted table, so a
+ * whole search costs about |A| + |B| ≈ (2K+1)^⌈m/2⌉ operations instead of (2K+1)^m.
  */
 import type { Budget } from './limits.js';
 import { LimitError } from './limits.js';
@@ -50,6 +50,10 @@ export interface RelationPlan {
   readonly sizeB: number;
   /** Per B entry: whether its first non-zero coefficient is positive (for pairing with the zero A vector). */
   readonly positiveB: Uint8Array;
+  /** Per B entry: its number of non-zero coefficients, capped at 2. */
+  readonly nonzeroB: Uint8Array;
+  /** Per P entry: its number of non-zero coefficients, capped at 2. */
+  readonly nonzeroP: Uint8Array;
   /** Prefix table: sign-normalised vectors of motions 0 … hA−2 (zero vector first), for the per-trial walk. */
   readonly coeffP: Int8Array;
   readonly sizeP: number;
@@ -90,12 +94,25 @@ export function planRelationSearch(bodies: number, bound: number): RelationPlan 
   }
   const coeffP = enumerate(hA - 1, bound, true);
   const coeffQ = enumerate(hB - 1, bound, false);
+  const sizeP = hA > 1 ? coeffP.length / (hA - 1) : 1;
   return {
     bodies, bound, combinations: (base ** bodies - 1) / 2, hA, hB,
     coeffA, sizeA: coeffA.length / hA, coeffB, sizeB, positiveB,
-    coeffP, sizeP: hA > 1 ? coeffP.length / (hA - 1) : 1,
+    nonzeroB: countNonzero(coeffB, hB, sizeB), nonzeroP: countNonzero(coeffP, hA - 1, sizeP),
+    coeffP, sizeP,
     coeffQ, sizeQ: hB > 1 ? coeffQ.length / (hB - 1) : 1,
   };
+}
+
+/** Non-zero coefficients per row (capped at 2: the statistic only asks "at least two motions?"). */
+function countNonzero(rows: Int8Array, h: number, size: number): Uint8Array {
+  const out = new Uint8Array(size);
+  for (let j = 0; j < size; j++) {
+    let c = 0;
+    for (let i = 0; i < h; i++) if (rows[j * h + i] !== 0) c++;
+    out[j] = c > 2 ? 2 : c;
+  }
+  return out;
 }
 
 /** All vectors in [−K, K]^h (row-major); with `signNormalised`, the zero vector and those whose first non-zero entry is positive. */
@@ -124,18 +141,16 @@ export interface FoundRelation {
   readonly k: readonly number[];
   /** Σ kᵢnᵢ in the unit of the input frequencies. */
   readonly residual: number;
-  /** Normalised residual ε = |Σ kᵢnᵢ| / maxᵢ |kᵢnᵢ|. */
+  /** The ranking score |Σ kᵢnᵢ| (same unit as the residual): smaller ranks first. */
   readonly score: number;
 }
 
 /** Scratch arrays reused across searches of one plan (one per thread of work). */
 class Workspace {
   readonly sA: Float64Array;
-  readonly mA: Float64Array;
   readonly sB: Float64Array;
-  readonly mB: Float64Array;
   readonly sortedS: Float64Array;
-  readonly sortedM: Float64Array;
+  readonly sortedNz: Uint8Array;
   readonly sortedIdx: Int32Array;
   readonly start: Int32Array;
   readonly fill: Int32Array;
@@ -143,15 +158,12 @@ class Workspace {
   readonly buckets: number;
   range = 0;
   width = 1;
-  maxTermB = 0;
 
   constructor(readonly plan: RelationPlan, withA = false) {
     this.sA = new Float64Array(withA ? plan.sizeA : 0);
-    this.mA = new Float64Array(withA ? plan.sizeA : 0);
     this.sB = new Float64Array(plan.sizeB);
-    this.mB = new Float64Array(plan.sizeB);
     this.sortedS = new Float64Array(plan.sizeB);
-    this.sortedM = new Float64Array(plan.sizeB);
+    this.sortedNz = new Uint8Array(plan.sizeB);
     this.sortedIdx = new Int32Array(plan.sizeB);
     // Four to eight buckets per entry: most queries then find an empty range and stop at
     // once (measured best against two and sixteen in the relation benchmark's setting).
@@ -163,37 +175,27 @@ class Workspace {
     this.bucketOf = new Int32Array(plan.sizeB);
   }
 
-  /** Partial sums and largest terms of table A for these motions (the listing search). */
+  /** Partial sums of table A for these motions (the listing search). */
   loadA(n: ArrayLike<number>): void {
     const { hA, coeffA, sizeA } = this.plan;
     for (let i = 0; i < sizeA; i++) {
-      let s = 0, mx = 0;
-      for (let c = 0; c < hA; c++) {
-        const t = coeffA[i * hA + c]! * n[c]!;
-        s += t;
-        const at = t < 0 ? -t : t;
-        if (at > mx) mx = at;
-      }
-      this.sA[i] = s; this.mA[i] = mx;
+      let s = 0;
+      for (let c = 0; c < hA; c++) s += coeffA[i * hA + c]! * n[c]!;
+      this.sA[i] = s;
     }
   }
 
-  /** Partial sums and largest terms of table B for these motions, bucket-sorted by sum. */
+  /** Partial sums of table B for these motions, sorted by sum (counting sort into buckets). */
   loadB(n: ArrayLike<number>): void {
-    const { hA, hB, coeffQ, sizeQ, sizeB, bound } = this.plan;
-    let range = 0, fastest = 0;
-    for (let c = 0; c < hB; c++) {
-      const v = Math.abs(n[hA + c]!);
-      range += v;
-      if (v > fastest) fastest = v;
-    }
+    const { hA, hB, coeffQ, sizeQ, sizeB, bound, nonzeroB } = this.plan;
+    let range = 0;
+    for (let c = 0; c < hB; c++) range += Math.abs(n[hA + c]!);
     range = range > 0 ? range * bound : 1;
-    this.maxTermB = fastest * bound;
     this.range = range;
     this.width = (2 * range) / this.buckets;
     const inv = 1 / this.width;
     const top = this.buckets - 1;
-    const { sB, mB, bucketOf, sortedS, sortedM, sortedIdx, fill } = this;
+    const { sB, bucketOf, sortedS, sortedNz, sortedIdx, fill } = this;
     const count = this.start;
     count.fill(0);
     // Table B is in odometer order (last coefficient fastest): entry = prefix · (2K+1) + (k_last + K),
@@ -202,19 +204,11 @@ class Workspace {
     const nLast = n[hA + hQ]!;
     let j = 0;
     for (let q = 0; q < sizeQ; q++) {
-      let sq = 0, mq = 0;
-      for (let c = 0; c < hQ; c++) {
-        const t = coeffQ[q * hQ + c]! * n[hA + c]!;
-        sq += t;
-        const at = t < 0 ? -t : t;
-        if (at > mq) mq = at;
-      }
+      let sq = 0;
+      for (let c = 0; c < hQ; c++) sq += coeffQ[q * hQ + c]! * n[hA + c]!;
       for (let kc = -bound; kc <= bound; kc++, j++) {
-        const t = kc * nLast;
-        const at = t < 0 ? -t : t;
-        const s = sq + t;
+        const s = sq + kc * nLast;
         sB[j] = s;
-        mB[j] = at > mq ? at : mq;
         const x = (s + range) * inv;
         const bk = x <= 0 ? 0 : x >= top ? top : x | 0;
         bucketOf[j] = bk;
@@ -229,7 +223,7 @@ class Workspace {
       const at = fill[bk]!;
       fill[bk] = at + 1;
       sortedS[at] = sB[j]!;
-      sortedM[at] = mB[j]!;
+      sortedNz[at] = nonzeroB[j]!;
       sortedIdx[at] = j;
     }
   }
@@ -241,59 +235,47 @@ class Workspace {
 }
 
 /**
- * The smallest normalised residual over the whole search space, if it is ≤ `bound`: the
- * per-trial fast path. Table A is not stored: its vectors are a prefix table over the first
- * hA − 1 motions times the last A motion's coefficient, walked with running sums; each is
- * matched against the bucketed table B at once.
- * @param enough stop as soon as a relation scores ≤ this (the caller only compares with
- *   thresholds ≥ it, so any such score counts the same)
- * @returns ε of the best relation (or the first ≤ `enough`), or Infinity when none is ≤ `bound`
+ * The smallest absolute residual |Σ kᵢnᵢ| over the relations of the search space (at least two
+ * non-zero kᵢ), if it is ≤ `bound`: the per-trial fast path. Table A is not stored: its vectors
+ * are a prefix table over the first hA − 1 motions times the last A motion's coefficient, walked
+ * with running sums; each is matched against the sorted table B at once by an interval query.
+ * Non-primitive vectors need no test: a multiple of a relation has a larger residual.
+ * @param enough stop as soon as a relation has |residual| ≤ this (the caller only compares with
+ *   thresholds ≥ it, so any such residual counts the same)
+ * @returns the best |residual| (or the first ≤ `enough`), or Infinity when none is ≤ `bound`
  */
 function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number, enough = -1): number {
-  const { hA, bound: K, coeffP, sizeP } = ws.plan;
-  const { sortedS, sortedM, start } = ws;
-  const maxTermB = ws.maxTermB;
+  const { hA, bound: K, coeffP, sizeP, nonzeroP } = ws.plan;
+  const { sortedS, sortedNz, start } = ws;
   const range = ws.range;
   const inv = 1 / ws.width;
   const topBucket = ws.buckets - 1;
   const hP = hA - 1;
   const nLast = n[hP]!;
   let best = Infinity;
-  // lim = min(best, bound): a candidate must have |r| ≤ lim · max(term).
+  // lim = min(best, bound): a candidate must have |sa + sb| ≤ lim, i.e. sb ∈ [−sa − lim, −sa + lim].
   let lim = bound;
   for (let p = 0; p < sizeP; p++) {
-    let sp = 0, mp = 0;
-    for (let c = 0; c < hP; c++) {
-      const t = coeffP[p * hP + c]! * n[c]!;
-      sp += t;
-      const at = t < 0 ? -t : t;
-      if (at > mp) mp = at;
-    }
+    let sp = 0;
+    for (let c = 0; c < hP; c++) sp += coeffP[p * hP + c]! * n[c]!;
+    const nzP = nonzeroP[p]!;
     // Prefix 0 is the zero vector: the last A coefficient then starts at 0 (sign normalisation).
     for (let kc = p === 0 ? 0 : -K; kc <= K; kc++) {
-      const t = kc * nLast;
-      const at = t < 0 ? -t : t;
-      const sa = sp + t;
-      const ma = at > mp ? at : mp;
-      const half = lim * (ma > maxTermB ? ma : maxTermB);
-      // Clamped bucket range of [target − half, target + half], without data-dependent branches
-      // (random motions make them unpredictable); half ≥ range clamps to every bucket.
+      const sa = sp + kc * nLast;
+      const nzA = kc === 0 ? nzP : nzP + 1;
+      // Clamped bucket range of [−sa − lim, −sa + lim], without data-dependent branches
+      // (random motions make them unpredictable); lim ≥ range clamps to every bucket.
       const x = (range - sa) * inv;
-      const hw = half * inv;
+      const hw = lim * inv;
       const b0 = Math.max(0, Math.min(topBucket, x - hw)) | 0;
       const b1 = Math.max(0, Math.min(topBucket, x + hw)) | 0;
       for (let j = start[b0]!, end = start[b1 + 1]!; j < end; j++) {
-        const mb = sortedM[j]!;
-        const mx = ma > mb ? ma : mb;
         const r = sa + sortedS[j]!;
         const ar = r < 0 ? -r : r;
-        // mx = 0 only for the zero vector, which never passes (ar ≤ 0 · lim is excluded by mx > 0).
-        if (ar <= lim * mx && mx > 0) {
-          const e = ar / mx;
-          if (e < best) {
-            best = e; lim = e;
-            if (e <= enough) return e;
-          }
+        // Fewer than two non-zero coefficients (the zero vector, or one motion alone) is no relation.
+        if (ar <= lim && nzA + sortedNz[j]! >= 2 && ar < best) {
+          best = ar; lim = ar;
+          if (ar <= enough) return ar;
         }
       }
     }
@@ -302,8 +284,8 @@ function bestScoreIn(ws: Workspace, n: ArrayLike<number>, bound: number, enough 
 }
 
 /**
- * The `top` best primitive relations Σ kᵢnᵢ ≈ 0 with |kᵢ| ≤ K, ranked by normalised residual
- * (ties: smaller Σ|kᵢ| first), by meet in the middle.
+ * The `top` best primitive relations Σ kᵢnᵢ ≈ 0 with |kᵢ| ≤ K, ranked by absolute residual
+ * |Σ kᵢnᵢ| (longest circulation period first; ties: smaller Σ|kᵢ| first), by meet in the middle.
  * @param freqs mean motions nᵢ > 0 in any one frequency unit (2 … 8 of them)
  * @param bound K ≥ 1
  * @param top how many relations to return, ≥ 1
@@ -318,31 +300,26 @@ export function searchRelations(freqs: readonly number[], bound: number, top: nu
   ws.loadA(freqs);
   ws.loadB(freqs);
   const { hA, hB, coeffA, coeffB, sizeA, positiveB } = plan;
-  const { sA, mA, sortedS, sortedM, sortedIdx, start } = ws;
+  const { sA, sortedS, sortedIdx, start } = ws;
   const kept: Array<FoundRelation & { weight: number }> = [];
   const k = new Array<number>(plan.bodies).fill(0);
   for (let i = 0; i < sizeA; i++) {
     if ((i & 1023) === 0) budget?.checkCancelled();
     const worst = kept.length < top ? Infinity : kept[kept.length - 1]!.score;
     const target = -sA[i]!;
-    const ma = mA[i]!;
-    const half = worst * (ma > ws.maxTermB ? ma : ws.maxTermB);
-    const b0 = Number.isFinite(half) ? ws.bucket(target - half) : 0;
-    const b1 = Number.isFinite(half) ? ws.bucket(target + half) : ws.buckets - 1;
+    const b0 = Number.isFinite(worst) ? ws.bucket(target - worst) : 0;
+    const b1 = Number.isFinite(worst) ? ws.bucket(target + worst) : ws.buckets - 1;
     for (let j = start[b0]!, end = start[b1 + 1]!; j < end; j++) {
-      const mb = sortedM[j]!;
-      const mx = ma > mb ? ma : mb;
-      if (mx === 0) continue;
       const r = sA[i]! + sortedS[j]!;
-      const e = Math.abs(r) / mx;
+      const e = Math.abs(r);
       const limit = kept.length < top ? Infinity : kept[kept.length - 1]!.score;
       if (e > limit) continue;
       const jb = sortedIdx[j]!;
-      if (i === 0 && positiveB[jb] !== 1) continue; // −k of a vector already counted
+      if (i === 0 && positiveB[jb] !== 1) continue; // −k of a vector already counted (or the zero vector)
       let g = 0, weight = 0;
       for (let c = 0; c < hA; c++) { k[c] = coeffA[i * hA + c]!; g = gcd(g, k[c]!); weight += Math.abs(k[c]!); }
       for (let c = 0; c < hB; c++) { k[hA + c] = coeffB[jb * hB + c]!; g = gcd(g, k[hA + c]!); weight += Math.abs(k[hA + c]!); }
-      // A multiple of a primitive relation has the same score; a unit vector (weight 1) involves one motion only.
+      // A multiple of a primitive relation says nothing new; a unit vector (weight 1) involves one motion only.
       if (g !== 1 || weight < 2) continue;
       insertRanked(kept, { k: k.slice(), residual: r, score: e, weight }, top);
     }
@@ -373,17 +350,15 @@ export function searchRelationsExhaustive(freqs: readonly number[], bound: numbe
   const kept: Array<FoundRelation & { weight: number }> = [];
   const total = (2 * bound + 1) ** m;
   for (let idx = 0; idx < total; idx++) {
-    let s = 0, mx = 0, first = 0, g = 0, weight = 0;
+    let s = 0, first = 0, g = 0, weight = 0;
     for (let c = 0; c < m; c++) {
       const v = k[c]!;
-      const t = v * freqs[c]!;
-      s += t;
-      if (Math.abs(t) > mx) mx = Math.abs(t);
+      s += v * freqs[c]!;
       if (first === 0) first = v;
       g = gcd(g, v);
       weight += Math.abs(v);
     }
-    if (first > 0 && g === 1 && weight >= 2) insertRanked(kept, { k: k.slice(), residual: s, score: Math.abs(s) / mx, weight }, top);
+    if (first > 0 && g === 1 && weight >= 2) insertRanked(kept, { k: k.slice(), residual: s, score: Math.abs(s), weight }, top);
     for (let c = m - 1; c >= 0; c--) {
       if (k[c]! < bound) { k[c] = k[c]! + 1; break; }
       k[c] = -bound;
@@ -392,20 +367,19 @@ export function searchRelationsExhaustive(freqs: readonly number[], bound: numbe
   return kept.map(({ k: kk, residual, score }) => ({ k: kk, residual, score }));
 }
 
-/** Smallest normalised residual over the box by brute force (the benchmark's per-trial baseline). */
+/** Smallest |Σ kᵢnᵢ| over the vectors of the box with at least two non-zero kᵢ, by brute force (the benchmark's per-trial baseline). */
 export function bestScoreExhaustive(freqs: readonly number[], bound: number): number {
   const m = freqs.length;
   const k = new Array<number>(m).fill(-bound);
   const total = (2 * bound + 1) ** m;
   let best = Infinity;
   for (let idx = 0; idx < total; idx++) {
-    let s = 0, mx = 0;
+    let s = 0, nonzero = 0;
     for (let c = 0; c < m; c++) {
-      const t = k[c]! * freqs[c]!;
-      s += t;
-      if (Math.abs(t) > mx) mx = Math.abs(t);
+      s += k[c]! * freqs[c]!;
+      if (k[c] !== 0) nonzero++;
     }
-    if (mx > 0 && Math.abs(s) / mx < best) best = Math.abs(s) / mx;
+    if (nonzero >= 2 && Math.abs(s) < best) best = Math.abs(s);
     for (let c = m - 1; c >= 0; c--) {
       if (k[c]! < bound) { k[c] = k[c]! + 1; break; }
       k[c] = -bound;
@@ -424,19 +398,20 @@ function checkFreqs(freqs: readonly number[]): void {
 export interface RelationChance {
   readonly trials: number;
   readonly seed: number;
-  /** Per threshold (in the order given): trials whose best relation scored ≤ the threshold. */
+  /** Per threshold (in the order given): trials whose best relation has |residual| ≤ the threshold. */
   readonly hits: readonly number[];
   /** The null model in words. */
   readonly nullModel: string;
 }
 
 /**
- * Chance that random motions have a relation at least as good: for each threshold εⱼ, the
- * fraction of trials whose best relation over the same search space (same m and K) has
- * ε ≤ εⱼ. Null model: periods drawn independently log-uniform between the shortest and
- * longest observed period (the score does not depend on their order).
+ * Chance that random motions have a relation at least as good: for each threshold rⱼ, the
+ * fraction of trials whose best relation over the same search space (same m and K, at least
+ * two motions) has |Σ kᵢnᵢ| ≤ rⱼ. Null model: periods drawn independently log-uniform between
+ * the shortest and longest observed period (the statistic does not depend on their order).
  * @param periods the observed periods (any one unit), 2 … 8, > 0
- * @param thresholds scores to test (e.g. those of the reported relations)
+ * @param thresholds absolute residuals to test, in cycles per unit of `periods` (e.g. the
+ *   scores of the reported relations when their motions are 1/period)
  * @param trials number of trials, checked against the budget's trial limit first
  * @param seed seed of the generator ({@link createRng})
  * @param budget ticked once per trial; cancellable
@@ -469,14 +444,14 @@ export function relationChance(periods: readonly number[], bound: number, thresh
     bests[t] = bestScoreIn(ws, n, cap, floor);
   }
   bests.sort();
-  const hits = thresholds.map((eps) => upperBound(bests, eps));
+  const hits = thresholds.map((r) => upperBound(bests, r));
   return {
     trials, seed, hits,
-    nullModel: `periods drawn independently log-uniform in [${formatPlain(lo)}, ${formatPlain(hi)}] (the observed range); statistic: the best normalised residual over the same search space (${periods.length} motions, |k| ≤ ${bound})`,
+    nullModel: `periods drawn independently log-uniform in [${formatPlain(lo)}, ${formatPlain(hi)}] (the observed range); statistic: the smallest absolute residual |Σ kᵢnᵢ| over the same search space (${periods.length} motions, |k| ≤ ${bound})`,
   };
 }
 
-/** Best score of a plan's search for given motions (no listing): the fast path used per trial. */
+/** Smallest |Σ kᵢnᵢ| of a plan's search (relations of at least two motions) for given motions, no listing: the fast path used per trial. */
 export function bestScore(freqs: readonly number[], bound: number, plan = planRelationSearch(freqs.length, bound)): number {
   checkFreqs(freqs);
   const ws = new Workspace(plan);
@@ -503,8 +478,6 @@ export interface RelationReading {
   readonly k: readonly number[];
   /** Σ kᵢnᵢ (frequency, cycles/day) with propagated uncertainty. */
   readonly residual: Quantity;
-  /** Normalised residual ε (see the module comment). */
-  readonly score: number;
   /** 1/|Σ kᵢnᵢ| (days) with propagated uncertainty; undefined when the residual is exactly 0. */
   readonly circulation?: Quantity;
   /** True when |residual| ≤ 2σ: the data are consistent with an exact commensurability. */
@@ -526,12 +499,7 @@ export interface RelationReading {
 export function readRelation(k: readonly number[], freqs: readonly Quantity[]): RelationReading {
   if (k.length !== freqs.length) throw new RangeError('one coefficient per mean motion');
   let value = 0;
-  let maxTerm = 0;
-  for (let i = 0; i < k.length; i++) {
-    const t = k[i]! * freqs[i]!.value;
-    value += t;
-    maxTerm = Math.max(maxTerm, Math.abs(t));
-  }
+  for (let i = 0; i < k.length; i++) value += k[i]! * freqs[i]!.value;
   const residual = propagate(value, 'frequency', freqs.map((q, i) => [q, k[i]!] as const));
   const consistentWithZero = Math.abs(value) <= 2 * sigmaOf(residual);
   const involved = k.map((v, i) => (v !== 0 ? i : -1)).filter((i) => i >= 0);
@@ -542,7 +510,7 @@ export function readRelation(k: readonly number[], freqs: readonly Quantity[]): 
     pairs.push({ from: involved[j]!, to: involved[j + 1]!, coefficient: partial });
   }
   const reading: RelationReading = {
-    k, residual, score: maxTerm > 0 ? Math.abs(value) / maxTerm : 0, consistentWithZero,
+    k, residual, consistentWithZero,
     coefficientSum: k.reduce((a, b) => a + b, 0), pairs,
   };
   return value === 0 ? reading : { ...reading, circulation: reciprocal(abs(residual)) };

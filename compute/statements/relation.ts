@@ -1,14 +1,14 @@
 /**
  * `relation A B C … [up-to K] [top M]`: integer relations Σ kᵢnᵢ ≈ 0 among the mean motions,
- * ranked by normalised residual, each with its residual frequency, the circulation period of
- * the resonant angle, the Σk = 0 flag, the pair-synodic reading and a seeded Monte-Carlo
- * chance probability.
+ * ranked by absolute residual |Σ kᵢnᵢ| (longest circulation period of the resonant angle first),
+ * each with its residual frequency, the circulation period, the Σk = 0 flag, the pair-synodic
+ * reading and a seeded Monte-Carlo chance probability.
  */
 import type { Statement } from '../../language/ast.js';
 import { Code } from '../../language/diagnostics.js';
 import { fail, type EvalContext } from '../context.js';
 import { ORBIT_NOTES_VERSION } from '../provenance.js';
-import { defaultUnit, exact, formatQuantity, formatSig, reciprocal, sigmaOf, type Quantity } from '../quantity.js';
+import { defaultUnit, exact, formatQuantity, reciprocal, sigmaOf, type Quantity } from '../quantity.js';
 import { RNG_LABEL } from '../random.js';
 import { gcd } from '../ratio.js';
 import {
@@ -66,7 +66,6 @@ export function evalRelation(stmt: RelationStmt, ctx: EvalContext): StatementRes
     return [
       String(i + 1),
       angleText(r.k, labels),
-      formatSig(r.score, 2),
       formatQuantity(r.residual),
       circulationText(r),
       r.coefficientSum === 0 ? '0 (yes)' : String(r.coefficientSum),
@@ -76,9 +75,9 @@ export function evalRelation(stmt: RelationStmt, ctx: EvalContext): StatementRes
   });
   const table: Table = {
     title: `Integer relations Σ kᵢnᵢ ≈ 0 with |kᵢ| ≤ ${bound}, best ${readings.length} of ${plan.combinations.toLocaleString('en-US')}`,
-    columns: ['#', 'resonant angle', 'ε', 'residual Σkn', 'circulation period', 'Σk = 0', 'as pair synodic frequencies', 'chance'],
+    columns: ['#', 'resonant angle', 'residual Σkn', 'circulation period', 'Σk = 0', 'as pair synodic frequencies', 'chance'],
     rows,
-    align: ['r', 'l', 'r', 'r', 'r', 'l', 'l', 'r'],
+    align: ['r', 'l', 'r', 'r', 'l', 'l', 'r'],
   };
   const motionTable: Table = {
     title: 'Mean motions',
@@ -105,13 +104,13 @@ export function evalRelation(stmt: RelationStmt, ctx: EvalContext): StatementRes
     summary,
     details: [
       `Search: every integer vector k with |kᵢ| ≤ ${bound} over ${count} mean motions, ${plan.combinations.toLocaleString('en-US')} up to overall sign; listed only if primitive (gcd 1) with the first non-zero kᵢ positive.`,
-      'Ranking: normalised residual ε = |Σ kᵢnᵢ| / maxᵢ |kᵢnᵢ| — the residual frequency in units of the relation\'s fastest term (unit-free; ε = 10⁻³ means one circulation per ~1000 turns of that term).',
+      'Ranking: absolute residual |Σ kᵢnᵢ|, smallest first — the same as the circulation period 1/|Σ kᵢnᵢ| of the angle Σ kᵢλᵢ, longest first, so the slowest-circulating angle leads (ties: smaller Σ|kᵢ| first). A near-exact pair commensurability plus a three-body relation can still beat the three-body relation alone; read the Σk column with it.',
       'Residual Σ kᵢnᵢ with first-order uncertainty from the periods; circulation period of the angle Σ kᵢλᵢ = 1/|Σ kᵢnᵢ|.',
       'Σk = 0: the angle Σ kᵢλᵢ is a valid resonant angle without pericentre terms (d\'Alembert rule), as for Laplace-type relations.',
       'Pair reading: over the involved motions in listed order, Σ kᵢnᵢ = Σⱼ Cⱼ·f(j, j+1) + (Σk)·n(last), with f(x, y) = n(x) − n(y) the signed synodic frequency of a pair (1/f its synodic period) and Cⱼ the partial sums of k.',
-      `Chance: ${chance.nullModel}; the fraction of ${chance.trials} trials whose best relation scores ε at or below the listed one.`,
+      `Chance: ${chance.nullModel}; the fraction of ${chance.trials} trials whose best relation has an absolute residual at or below the listed one's.`,
       `Random numbers: seed ${chance.seed} (\`set seed N\`), ${RNG_LABEL}.`,
-      'Method: meet in the middle over two half tables of coefficients, bucketed by partial sum (Horowitz & Sahni 1974).',
+      'Method: meet in the middle over two half tables of coefficients; for each entry of one table, an interval query on the other, sorted by partial sum (Horowitz & Sahni 1974).',
     ],
     tables: [table, motionTable],
     provenance: {

@@ -26,6 +26,12 @@ const KEPLER_223 = { b: 7.3845, c: 9.8456, d: 14.7887, e: 19.7257 };
  * Laplace angles of the consecutive triplets: (1, −4, 3), (2, −5, 3), (1, −3, 2) (from memory).
  */
 const TOI_178 = { c: 3.238450, d: 6.557700, e: 9.961881, f: 15.231915, g: 20.709950 };
+/**
+ * HD 110067 b … g: Luque et al. 2023, Nature 623, 932, periods in days (from memory). Pair
+ * resonances 3:2, 3:2, 3:2, 4:3, 4:3 (from memory); the Laplace-type angles of the consecutive
+ * triplets are their Σk = 0 combinations: (2,−5,3), (2,−5,3), (1,−3,2), (3,−7,4).
+ */
+const HD_110067 = { b: 9.113678, c: 13.673694, d: 20.519617, e: 30.793091, f: 41.05854, g: 54.76992 };
 
 const freqsOf = (periods: readonly number[]): number[] => periods.map((p) => 1 / p);
 const key = (r: FoundRelation): string => r.k.join(',');
@@ -51,16 +57,27 @@ describe('integer relations among mean motions: published resonant chains', () =
     assert.equal(key(topInvolvingAll([p.c, p.d, p.e], 4)), '1,-3,2');
   });
 
-  it('recovers the Kepler-223 relation λb − 2λc + λd as the top Σk = 0 relation of b, c, d; the only better one is the 4:3 pair relation minus it', () => {
+  it('recovers the HD 110067 Laplace-type relations of the consecutive triplets as their top relation (|k| ≤ 5, and |k| ≤ 7 for e, f, g)', () => {
+    const p = HD_110067;
+    assert.equal(key(topInvolvingAll([p.b, p.c, p.d], 5)), '2,-5,3');
+    assert.equal(key(topInvolvingAll([p.c, p.d, p.e], 5)), '2,-5,3');
+    assert.equal(key(topInvolvingAll([p.d, p.e, p.f], 5)), '1,-3,2');
+    // (3,−7,4) lies outside |k| ≤ 5; with |k| ≤ 7 it is the top one of e, f, g.
+    assert.equal(key(topInvolvingAll([p.e, p.f, p.g], 7)), '3,-7,4');
+  });
+
+  it('ranks the Kepler-223 relation λb − 2λc + λd first among Σk = 0 relations of b, c, d but second overall, behind the 4:3 pair relation minus it', () => {
+    // This states a finding, not the requirement: with these periods (from memory) the published
+    // angle is not the top relation of b, c, d under the absolute residual either.
     const p = KEPLER_223;
     const laplace = topInvolvingAll([p.b, p.c, p.d], 4, true);
     assert.equal(key(laplace), '1,-2,1');
-    // Ranked by residual alone, 2λb − 2λc − λd (Σk = −1) edges ahead: it is (3,−4,0) − (1,−2,1),
-    // the near-exact 4:3 of b and c combined with the Laplace relation, and needs a pericentre term.
-    const top = topInvolvingAll([p.b, p.c, p.d], 4);
-    assert.equal(key(top), '2,-2,-1');
+    // 2λb − 2λc − λd (Σk = −1) = (3,−4,0) − (1,−2,1): the near-exact 4:3 of b and c cancels part
+    // of the Laplace residual (|r| 8.2·10⁻⁵ against 9.8·10⁻⁵ /d), and needs a pericentre term.
     const ranked = searchRelations(freqsOf([p.b, p.c, p.d]), 4, 500).filter((r) => r.k.every((c) => c !== 0));
+    assert.equal(key(ranked[0]!), '2,-2,-1');
     assert.equal(ranked.findIndex((r) => key(r) === '1,-2,1'), 1);
+    console.log(`      |residual| 2,-2,-1: ${ranked[0]!.score.toExponential(3)} /d; 1,-2,1: ${ranked[1]!.score.toExponential(3)} /d`);
   });
 
   it('ranks the first-order pair commensurabilities of the whole Kepler-223 chain (4:3, 3:2, 4:3) among its best relations', () => {
@@ -152,20 +169,30 @@ describe('Monte-Carlo chance of a relation', () => {
   });
 
   it('matches the closed form for two motions with |k| ≤ 1, where the best relation is n₁ − n₂', () => {
-    // Null: two periods log-uniform on [L, H]; with K = 1 the best score is ε = 1 − P_min/P_max
-    // ((1, 1) scores > 1), so ε ≤ e ⇔ |U₁ − U₂| ≤ x = −ln(1 − e)/ln(H/L) for uniform U, and
-    // |U₁ − U₂| has the triangular density 2(1 − x): P = 1 − (1 − x)².
+    // Null: two periods log-uniform on [L, H], so each n = 1/P has density 1/(nΛ) on [a, b] =
+    // [1/H, 1/L], Λ = ln(H/L). With K = 1 the statistic is |n₁ − n₂| (n₁ + n₂ is larger and one
+    // motion alone is no relation), and by symmetry
+    //   P(|n₁ − n₂| ≤ r) = 1 − 2 ∫ₐ^{b−r} ln(b/(x + r)) / (x Λ²) dx,
+    // a one-dimensional integral of a smooth function, evaluated by Simpson's rule.
     const [lo, hi] = [10, 20];
-    const thresholds = [0.05, 0.1, 0.3];
+    const thresholds = [0.002, 0.005, 0.015];
     const trials = 20_000;
     const ch = relationChance([lo, hi], 1, thresholds, trials, 3);
+    const [a, b, lam] = [1 / hi, 1 / lo, Math.log(hi / lo)];
+    const closedForm = (r: number): number => {
+      const steps = 2000;
+      const h = (b - r - a) / steps;
+      const f = (x: number): number => Math.log(b / (x + r)) / (x * lam * lam);
+      let sum = f(a) + f(b - r);
+      for (let i = 1; i < steps; i++) sum += (i % 2 === 1 ? 4 : 2) * f(a + i * h);
+      return 1 - 2 * (sum * h) / 3;
+    };
     let worstZ = 0;
-    thresholds.forEach((e, i) => {
-      const x = -Math.log(1 - e) / Math.log(hi / lo);
-      const p = 1 - (1 - x) ** 2;
+    thresholds.forEach((r, i) => {
+      const p = closedForm(r);
       const z = Math.abs(ch.hits[i]! / trials - p) / Math.sqrt((p * (1 - p)) / trials);
       worstZ = Math.max(worstZ, z);
-      assert.ok(z < 4, `ε ≤ ${e}: closed form ${p.toFixed(4)}, simulated ${ch.hits[i]! / trials}`);
+      assert.ok(z < 4, `|r| ≤ ${r} /d: closed form ${p.toFixed(4)}, simulated ${ch.hits[i]! / trials}`);
     });
     console.log(`      worst |z| against the closed form: ${worstZ.toFixed(2)}`);
   });
@@ -210,8 +237,8 @@ describe('the relation statement', () => {
     assert.match(r.summary, /Σk = 0/);
     const t = r.tables[0]!;
     assert.equal(t.rows.length, 3);
-    assert.equal(t.rows[0]![5], '0 (yes)');
-    assert.match(t.rows[0]![6]!, /S\(3\.23845 d ± 0\.00001,6\.5577 d ± 0\.00001\) : S\(6\.5577 d ± 0\.00001,9\.961881 d ± 0\.00001\) = 1 : 3/);
+    assert.equal(t.rows[0]![4], '0 (yes)');
+    assert.match(t.rows[0]![5]!, /S\(3\.23845 d ± 0\.00001,6\.5577 d ± 0\.00001\) : S\(6\.5577 d ± 0\.00001,9\.961881 d ± 0\.00001\) = 1 : 3/);
     assert.equal(r.provenance.random, 'seed 1, 10000 trials');
     assert.ok(r.cautions.some((c) => /not evidence of a physical resonance/.test(c)));
     assert.ok(r.details.some((d) => /log-uniform/.test(d)));
@@ -221,7 +248,7 @@ describe('the relation statement', () => {
     const p = KEPLER_223;
     const a = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
     const b = evalRelation(stmt([p.b, p.c, p.d]), numbersOnly(5));
-    assert.deepEqual(a.tables[0]!.rows.map((x) => x[7]), b.tables[0]!.rows.map((x) => x[7]));
+    assert.deepEqual(a.tables[0]!.rows.map((x) => x[6]), b.tables[0]!.rows.map((x) => x[6]));
   });
 
   it('reads a two-body first-order relation as a synodic period in units of the outer period', () => {
@@ -229,8 +256,8 @@ describe('the relation statement', () => {
     const r = evalRelation(stmt([KEPLER_223.b, KEPLER_223.c], { top: 1 }), numbersOnly());
     const row = r.tables[0]!.rows[0]!;
     assert.equal(row[1], '3λ(7.3845 d ± 0.00001) − 4λ(9.8456 d ± 0.00001)');
-    assert.match(row[6]!, /^3f\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) − n\(9\.8456 d ± 0\.00001\) ≈ 0, i\.e\. S\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) : P\(9\.8456 d ± 0\.00001\) = 3 : 1$/);
-    assert.equal(row[5], '-1');
+    assert.match(row[5]!, /^3f\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) − n\(9\.8456 d ± 0\.00001\) ≈ 0, i\.e\. S\(7\.3845 d ± 0\.00001,9\.8456 d ± 0\.00001\) : P\(9\.8456 d ± 0\.00001\) = 3 : 1$/);
+    assert.equal(row[4], '-1');
   });
 
   it('refuses one motion, or the same operand twice', () => {
