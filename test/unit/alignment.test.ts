@@ -210,6 +210,18 @@ describe('alignment on real planets', function () {
       assert.ok(worst < toleranceSeconds, `worst ${worst.toFixed(2)} s`);
     });
 
+    it('puts the tightest instants of geocentric Venus–Mars windows at the conjunction times, 1950–2050 (retrograde loops included)', () => {
+      const from = instantFromCalendar({ year: 1950, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const to = instantFromCalendar({ year: 2050, month: 1, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
+      const conj = findConjunctions({ a: 'venus', b: 'mars', start: from, end: to, seenFrom: 'earth', budget: new Budget() }).events;
+      const r = findAlignments(adapterBodies(['venus', 'mars'], 'earth'), { angleRad: 0.01 * DEG, fromTt: from.tt, toTt: to.tt });
+      assert.equal(r.windows.length, conj.length);
+      let worst = 0;
+      r.windows.forEach((w, i) => { worst = Math.max(worst, Math.abs(w.tightestTt - conj[i]!.instant.tt) * 86400); });
+      console.log(`      ${conj.length} conjunctions; worst difference ${worst.toFixed(2)} s`);
+      assert.ok(worst < toleranceSeconds, `worst ${worst.toFixed(2)} s`);
+    });
+
     it('puts the tightest instant of the geocentric Jupiter–Saturn window of 2020 at the conjunction in longitude', () => {
       const from = instantFromCalendar({ year: 2020, month: 10, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
       const to = instantFromCalendar({ year: 2021, month: 3, day: 1, hour: 0, minute: 0, second: 0 }, 'mixed');
