@@ -201,6 +201,31 @@ const NOTE = [
     assert.ok((await api()).inlineTexts(doc).length > 0);
   });
 
+  it('writes every note of the workspace and saves those that were not being edited', async () => {
+    const committed = vscode.Uri.joinPath(vscode.workspace.workspaceFolders![0]!.uri, 'note.md');
+    const original = await vscode.workspace.fs.readFile(committed);
+    const other = vscode.Uri.joinPath(folder, 'closed.md');
+    await vscode.workspace.fs.writeFile(other, new TextEncoder().encode(NOTE));
+    try {
+      const outcomes = await vscode.commands.executeCommand<Array<{ uri: vscode.Uri; written: number }>>('orbitNotes.writeWorkspaceResults');
+      const byPath = new Map(outcomes.map((o) => [o.uri.path, o.written]));
+      assert.equal(byPath.get(other.path), 2);
+      assert.equal(byPath.get(committed.path), 1);
+      // Written to disk exactly as the command line writes it.
+      const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'orbit-ws-'));
+      const copy = path.join(tmp, 'closed.md');
+      fs.writeFileSync(copy, NOTE);
+      const cli = path.join(vscode.extensions.getExtension('orbit-notes.orbit-notes')!.extensionPath, 'dist', 'cli.js');
+      spawnSync(process.execPath, [cli, 'write', copy], { encoding: 'utf8' });
+      assert.equal(new TextDecoder().decode(await vscode.workspace.fs.readFile(other)), fs.readFileSync(copy, 'utf8'));
+      fs.rmSync(tmp, { recursive: true, force: true });
+    } finally {
+      const doc = vscode.workspace.textDocuments.find((d) => d.uri.toString() === committed.toString());
+      if (doc?.isDirty) await doc.save();
+      await vscode.workspace.fs.writeFile(committed, original);
+    }
+  });
+
   it('re-evaluates a series when its data file is rewritten', async () => {
     const data = vscode.Uri.joinPath(folder, 'flux.csv');
     await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,1\n1,2\n2,3\n'));
