@@ -27,6 +27,9 @@ export const SOLAR_CAUTION_ELONGATION_RAD = 15 * DEG;
 
 /** Points of the spread curve drawn in the plot, besides the window edges and minima. */
 const PLOT_SAMPLES = 600;
+/** Beyond these, the plot keeps only its even grid (search samples) or the first windows (spans). */
+const PLOT_MAX_SEARCH_SAMPLES = 4000;
+const PLOT_MAX_WINDOWS = 2000;
 
 /** A caution every alignment result carries. */
 export const RECURRENCE_NOT_FORECAST = 'An alignment, and the recurrence of alignments, is geometry: it is not a forecast of anything on Earth.';
@@ -213,7 +216,7 @@ export function evalAlignment(stmt: AlignmentStmt, ctx: EvalContext): StatementR
       `A window is an interval with spread ≤ ${fmtDeg(angleRad, 3)}; its axis is the middle of that arc at the tightest instant.`,
       `Steps of (|spread − angle| + δ)/L with L = ${(search.spreadRateBoundRadPerDay / DEG).toFixed(4)}°/d, the largest possible rate of the spread (from the bodies' longitude-rate bounds), δ = ${fmtDeg(angleRad / 1000, 4)}: no window that goes at least δ below the angle can be stepped over.`,
       'Edges by Brent’s root finder (tolerance ≈ 1 s), tightest instants by Brent’s minimiser on every sampled minimum (Brent 1973, Algorithms for Minimization without Derivatives, chapters 4–5).',
-      `${search.instants} instants × ${members.length} bodies = ${search.evaluations} ephemeris evaluations for the search (a 1-day scan would take ${Math.ceil(to.tt - from.tt) * members.length}); ${plotEvaluations} more for the plot and elongations.`,
+      `${search.instants} instants × ${members.length} bodies = ${search.evaluations} ephemeris evaluations for the search (a fixed 1-day scan would take ${Math.ceil(to.tt - from.tt) * members.length} and could step over windows shorter than a day); ${plotEvaluations} more for the plot and elongations.`,
     ],
     tables,
     provenance: {
@@ -236,13 +239,14 @@ function windowsPlot(windows: readonly AlignmentWindow[], samples: { readonly tt
   const year = (tt: number): number => 2000 + tt / YEAR_DAYS;
   // An even grid for the curve's shape, plus the search's own samples and every window's edges and minimum.
   const pts = new Map<number, number>();
-  samples.tt.forEach((t, i) => pts.set(t, samples.spreadRad[i]!));
+  if (samples.tt.length <= PLOT_MAX_SEARCH_SAMPLES) samples.tt.forEach((t, i) => pts.set(t, samples.spreadRad[i]!));
+  const shown = windows.slice(0, PLOT_MAX_WINDOWS);
   const spreadAt = (tt: number): number => smallestArc(bodies.map((b) => b.longitudeRad(tt) + (b.opposite ? Math.PI : 0))).spreadRad;
   for (let k = 0; k <= PLOT_SAMPLES; k++) {
     const t = fromTt + (toTt - fromTt) * k / PLOT_SAMPLES;
     if (!pts.has(t)) pts.set(t, spreadAt(t));
   }
-  for (const w of windows) {
+  for (const w of shown) {
     pts.set(w.startTt, pts.get(w.startTt) ?? angleRad);
     pts.set(w.endTt, pts.get(w.endTt) ?? angleRad);
     pts.set(w.tightestTt, w.spreadRad);
@@ -250,13 +254,13 @@ function windowsPlot(windows: readonly AlignmentWindow[], samples: { readonly tt
   const ts = [...pts.keys()].sort((a, b) => a - b);
   return {
     kind: 'windows',
-    title: `Spread of ${names}`,
+    title: `Spread of ${names}${shown.length < windows.length ? ` (first ${shown.length} of ${windows.length} windows shaded)` : ''}`,
     xLabel: 'year (TT; J2000 + Julian years)',
     yLabel: 'spread (deg)',
     series: [
       { label: 'spread', x: ts.map(year), y: ts.map((t) => pts.get(t)! / DEG) },
       { label: `within ${(angleRad / DEG).toFixed(1)}°`, x: [year(fromTt), year(toTt)], y: [angleRad / DEG, angleRad / DEG] },
     ],
-    spans: windows.map((w, i) => ({ x0: year(w.startTt), x1: year(w.endTt), label: `#${i + 1}: ${(w.spreadRad / DEG).toFixed(2)}° at ${year(w.tightestTt).toFixed(2)}` })),
+    spans: shown.map((w, i) => ({ x0: year(w.startTt), x1: year(w.endTt), label: `#${i + 1}: ${(w.spreadRad / DEG).toFixed(2)}° at ${year(w.tightestTt).toFixed(2)}` })),
   };
 }
