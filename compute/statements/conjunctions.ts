@@ -98,6 +98,11 @@ export function spanCautions(start: Instant, end: Instant, bodies: readonly Posi
   return { cautions, validity: warn?.message };
 }
 
+/** The accuracy note as a warning diagnostic too (the Problems panel), not only as a caution. */
+export function accuracyWarnings(validity: string | undefined): Pick<StatementResult, 'warnings'> {
+  return validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {};
+}
+
 /** Map the search's failures to diagnostics at the statement; limits and cancellation pass through. */
 export function searchFailure(err: unknown, range: Range): never {
   if (err instanceof EphemerisRangeError || err instanceof RangeError) fail(Code.OutOfRange, err.message, range);
@@ -221,8 +226,7 @@ export function evalConjunctions(stmt: ConjunctionsStmt, ctx: EvalContext): Stat
     provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
     cautions,
     events: records,
-    // Shown in the editor's Problems panel too, not only in the caution text.
-    ...(validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {}),
+    ...accuracyWarnings(validity),
   };
 }
 

@@ -10,7 +10,7 @@ import type { EventRecord, StatementResult, Table } from '../result.js';
 import { formatUtcMinutes, isoUtc, jdTt } from '../time.js';
 import {
   formatAngle, formatInterval, formatJdTt, formatLon, positionBody, searchFailure, searchProvenance,
-  spanCautions, spanInstants, summaryTable,
+  accuracyWarnings, spanCautions, spanInstants, summaryTable,
 } from './conjunctions.js';
 import { intervalStats } from '../synodic.js';
 
@@ -81,7 +81,6 @@ export function evalOppositions(stmt: OppositionsStmt, ctx: EvalContext): Statem
     provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
     cautions,
     events: records,
-    // Shown in the editor's Problems panel too, not only in the caution text.
-    ...(validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {}),
+    ...accuracyWarnings(validity),
   };
 }
