@@ -1,11 +1,7 @@
 import * as assert from 'node:assert/strict';
-import { spawnSync } from 'node:child_process';
-import * as fs from 'node:fs';
-import * as os from 'node:os';
-import * as path from 'node:path';
 import * as vscode from 'vscode';
 import type { NoteView } from '../../../extension/service.js';
-import { api, diagnosticsWhere, hoverText, lineOf, openNote, replaceInDocument, scratchFolder, RESTRICTED, viewWhere } from './helpers.js';
+import { api, cliWrite, diagnosticsWhere, hoverText, lineOf, openNote, replaceInDocument, scratchFolder, RESTRICTED, viewWhere } from './helpers.js';
 
 const NOTE = [
   '# Resonance sketch',
@@ -143,16 +139,7 @@ const NOTE = [
     const { doc } = await openNote(folder, 'write.md', NOTE);
     const outcome = await vscode.commands.executeCommand<{ written: number }>('orbitNotes.writeResults', doc.uri);
     assert.equal(outcome.written, 2);
-    // The command line on a copy of the same text, in a folder of its own.
-    const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'orbit-write-'));
-    const copy = path.join(tmp, 'note.md');
-    fs.writeFileSync(copy, NOTE);
-    const cli = path.join(vscode.extensions.getExtension('orbit-notes.orbit-notes')!.extensionPath, 'dist', 'cli.js');
-    // It exits 2 because the note has an error (OB201), after writing.
-    const run = spawnSync(process.execPath, [cli, 'write', copy], { encoding: 'utf8' });
-    assert.ok(run.status === 0 || run.status === 2, `orbit-notes write exited ${run.status}: ${run.stderr}`);
-    assert.equal(doc.getText(), fs.readFileSync(copy, 'utf8'));
-    fs.rmSync(tmp, { recursive: true, force: true });
+    assert.equal(doc.getText(), cliWrite(NOTE));
     const again = await vscode.commands.executeCommand<{ written: number }>('orbitNotes.writeResults', doc.uri);
     assert.equal(again.written, 0);
     const lenses = await vscode.commands.executeCommand<vscode.CodeLens[]>('vscode.executeCodeLensProvider', doc.uri);
@@ -212,13 +199,7 @@ const NOTE = [
       assert.equal(byPath.get(other.path), 2);
       assert.equal(byPath.get(committed.path), 1);
       // Written to disk exactly as the command line writes it.
-      const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'orbit-ws-'));
-      const copy = path.join(tmp, 'closed.md');
-      fs.writeFileSync(copy, NOTE);
-      const cli = path.join(vscode.extensions.getExtension('orbit-notes.orbit-notes')!.extensionPath, 'dist', 'cli.js');
-      spawnSync(process.execPath, [cli, 'write', copy], { encoding: 'utf8' });
-      assert.equal(new TextDecoder().decode(await vscode.workspace.fs.readFile(other)), fs.readFileSync(copy, 'utf8'));
-      fs.rmSync(tmp, { recursive: true, force: true });
+      assert.equal(new TextDecoder().decode(await vscode.workspace.fs.readFile(other)), cliWrite(NOTE));
     } finally {
       const doc = vscode.workspace.textDocuments.find((d) => d.uri.toString() === committed.toString());
       if (doc?.isDirty) await doc.save();
@@ -236,7 +217,13 @@ const NOTE = [
     assert.match(before, /mean 2(\b|\.0)/);
     const seriesSummary = (v: NoteView): string => v.evaluation?.blocks[0]?.statements[0]?.result?.summary ?? '';
     const rewritten = viewWhere(doc.uri, (v) => !v.stale && !v.running && /4 samples/.test(seriesSummary(v)));
-    await vscode.workspace.fs.writeFile(data, new TextEncoder().encode('t,v\n0,10\n1,20\n2,30\n3,40\n'));
+    // Rewritten in the editor and saved (an outside rewrite is seen through a file watcher,
+    // which may miss a write made right after it was set up, so the test does not rely on it).
+    const dataDoc = await vscode.workspace.openTextDocument(data);
+    const edit = new vscode.WorkspaceEdit();
+    edit.replace(data, new vscode.Range(0, 0, dataDoc.lineCount, 0), 't,v\n0,10\n1,20\n2,30\n3,40\n');
+    assert.ok(await vscode.workspace.applyEdit(edit));
+    assert.ok(await dataDoc.save());
     await rewritten;
     const after = (await api()).inlineTexts(doc).find((t) => t.line === line)?.text ?? '';
     assert.match(after, /4 samples/);

@@ -4,6 +4,10 @@
  * and event-driven waits with time limits.
  */
 import * as assert from 'node:assert/strict';
+import { spawnSync } from 'node:child_process';
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
 import * as vscode from 'vscode';
 import type { OrbitNotesApi } from '../../../extension/extension.js';
 import type { NoteView } from '../../../extension/service.js';
@@ -101,4 +105,22 @@ export async function viewWhere(uri: vscode.Uri, test: (v: NoteView) => boolean,
       resolve(v);
     });
   });
+}
+
+/**
+ * What `orbit-notes write` makes of a note's text: the built command line run on a copy
+ * in a folder of its own. It exits 2 for notes with errors, after writing.
+ */
+export function cliWrite(text: string): string {
+  const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'orbit-cli-'));
+  try {
+    const copy = path.join(tmp, 'note.md');
+    fs.writeFileSync(copy, text);
+    const cli = path.join(vscode.extensions.getExtension(EXTENSION_ID)!.extensionPath, 'dist', 'cli.js');
+    const run = spawnSync(process.execPath, [cli, 'write', copy], { encoding: 'utf8' });
+    assert.ok(run.status === 0 || run.status === 2, `orbit-notes write exited ${run.status}: ${run.stderr}`);
+    return fs.readFileSync(copy, 'utf8');
+  } finally {
+    fs.rmSync(tmp, { recursive: true, force: true });
+  }
 }
