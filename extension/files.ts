@@ -12,6 +12,8 @@ import { FileAccessError } from '../compute/note.js';
 export interface ReadOutcome {
   readonly text: string;
   readonly uri: vscode.Uri;
+  /** Modification time when read (ms since the epoch; -1 when unknown). */
+  readonly mtimeMs: number;
 }
 
 /**
@@ -31,7 +33,8 @@ export async function readNoteFile(noteUri: vscode.Uri, relativePath: string): P
     const host = createFsHost(noteUri.fsPath, folder.uri.fsPath);
     const text = await host.readText(relativePath);
     const [real] = [...host.filesRead];
-    return { text, uri: real ? vscode.Uri.file(real) : vscode.Uri.joinPath(noteUri, '..', relativePath) };
+    const uri = real ? vscode.Uri.file(real) : vscode.Uri.joinPath(noteUri, '..', relativePath);
+    return { text, uri, mtimeMs: await mtimeOf(uri) };
   }
   if (relativePath.startsWith('/') || /^[a-z][\w+.-]*:/i.test(relativePath)) {
     throw new FileAccessError(`\`${relativePath}\` must be a path relative to the note`, 'outside-workspace');
@@ -51,5 +54,13 @@ export async function readNoteFile(noteUri: vscode.Uri, relativePath: string): P
   if (stat.type & vscode.FileType.Directory) throw new FileAccessError(`\`${relativePath}\` is not a file`, 'unreadable');
   if (stat.size > MAX_DATA_FILE_BYTES) throw new FileAccessError(`\`${relativePath}\` is larger than ${MAX_DATA_FILE_BYTES / 1048576} MiB`, 'unreadable');
   const bytes = await vscode.workspace.fs.readFile(target);
-  return { text: new TextDecoder('utf-8').decode(bytes), uri: target };
+  return { text: new TextDecoder('utf-8').decode(bytes), uri: target, mtimeMs: stat.mtime };
+}
+
+async function mtimeOf(uri: vscode.Uri): Promise<number> {
+  try {
+    return (await vscode.workspace.fs.stat(uri)).mtime;
+  } catch {
+    return -1;
+  }
 }

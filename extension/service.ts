@@ -42,8 +42,8 @@ interface NoteState {
   /** Called when the running request ends, to start the next one. */
   queued: boolean;
   progress: { done: number; total: number; line: number } | undefined;
-  /** URIs (as text) of the data files the last evaluation read. */
-  filesRead: Set<string>;
+  /** The data files the last evaluation read: URI as text → modification time when read. */
+  filesRead: Map<string, number>;
   /** Waiters for the next applied evaluation. */
   waiters: Array<(view: NoteView) => void>;
   /** Waiters for the end of the run in flight, applied or not. */
@@ -56,7 +56,7 @@ interface Request {
   readonly version: number;
   readonly flag: Int32Array;
   readonly startedMs: number;
-  readonly filesRead: Set<string>;
+  readonly filesRead: Map<string, number>;
   readonly resolve: (evaluation: NoteEvaluation | undefined) => void;
 }
 
@@ -99,6 +99,8 @@ export class EvaluationService implements vscode.Disposable {
       vscode.workspace.onDidGrantWorkspaceTrust(() => this.reevaluateAll()),
       // Saves of data files open in the editor, in case the file watcher is slow to tell.
       vscode.workspace.onDidSaveTextDocument((d) => this.onFileChanged(d.uri)),
+      // Back from another program: catch data files it rewrote, should the watcher have missed it.
+      vscode.window.onDidChangeWindowState((w) => { if (w.focused) void this.checkFileTimes(); }),
       vscode.workspace.onDidChangeConfiguration((e) => {
         if (e.affectsConfiguration('orbitNotes.limits')) this.reevaluateAll();
       }),
@@ -205,7 +207,7 @@ export class EvaluationService implements vscode.Disposable {
     if (!s) {
       s = {
         uri, evaluation: undefined, evaluatedVersion: -1, tracker: new LineTracker(), stale: false,
-        timer: undefined, running: undefined, queued: false, progress: undefined, filesRead: new Set(), waiters: [], runEnded: [],
+        timer: undefined, running: undefined, queued: false, progress: undefined, filesRead: new Map(), waiters: [], runEnded: [],
       };
       this.notes.set(key, s);
     }
@@ -244,7 +246,7 @@ export class EvaluationService implements vscode.Disposable {
     const flag = new Int32Array(new SharedArrayBuffer(4));
     const id = this.nextId++;
     return new Promise<NoteEvaluation | undefined>((resolve) => {
-      const request: Request = { id, key, version, flag, startedMs: Date.now(), filesRead: new Set(), resolve };
+      const request: Request = { id, key, version, flag, startedMs: Date.now(), filesRead: new Map(), resolve };
       this.requests.set(id, request);
       state.running = request;
       state.progress = undefined;
@@ -301,7 +303,7 @@ export class EvaluationService implements vscode.Disposable {
   /** Watch exactly the data files the notes' last evaluations read. */
   private updateFileWatchers(): void {
     const wanted = new Set<string>();
-    for (const s of this.notes.values()) for (const f of s.filesRead) wanted.add(f);
+    for (const s of this.notes.values()) for (const f of s.filesRead.keys()) wanted.add(f);
     for (const [f, w] of this.fileWatchers) {
       if (!wanted.has(f)) { w.dispose(); this.fileWatchers.delete(f); }
     }
@@ -311,6 +313,17 @@ export class EvaluationService implements vscode.Disposable {
       const watcher = vscode.workspace.createFileSystemWatcher(new vscode.RelativePattern(vscode.Uri.joinPath(uri, '..'), path.posix.basename(uri.path)), false, false, false);
       const changed = (): void => this.onFileChanged(uri);
       this.fileWatchers.set(f, vscode.Disposable.from(watcher, watcher.onDidChange(changed), watcher.onDidCreate(changed), watcher.onDidDelete(changed)));
+    }
+  }
+
+  /** Re-evaluate notes whose data files changed on disk since they were read. */
+  private async checkFileTimes(): Promise<void> {
+    const times = new Map<string, number>();
+    for (const s of this.notes.values()) for (const [f, t] of s.filesRead) times.set(f, t);
+    for (const [f, readMs] of times) {
+      let nowMs: number | undefined;
+      try { nowMs = (await vscode.workspace.fs.stat(vscode.Uri.parse(f))).mtime; } catch { nowMs = undefined; }
+      if (nowMs !== readMs) this.onFileChanged(vscode.Uri.parse(f));
     }
   }
 
@@ -364,7 +377,7 @@ export class EvaluationService implements vscode.Disposable {
           return;
         }
         readNoteFile(s.uri, m.path).then(
-          (o) => { r.filesRead.add(o.uri.toString()); this.post({ type: 'readResult', readId: m.readId, text: o.text }); },
+          (o) => { r.filesRead.set(o.uri.toString(), o.mtimeMs); this.post({ type: 'readResult', readId: m.readId, text: o.text }); },
           (err: unknown) => this.post({
             type: 'readResult', readId: m.readId,
             error: err instanceof FileAccessError
