@@ -13,6 +13,14 @@ NODE_VERSION_RANGE="24"
 CODE_SERVER_VERSION="4.139.1"
 mkdir -p "$LOGS"
 
+# Run from `npm test`, this script inherits the outer npm's settings as npm_config_* and
+# npm_* variables; the inner installs would take them for their own (the server's install
+# script reads the Node version from npm_config_user_agent, so it saw the system Node and
+# refused). Drop them all: each install below says what it needs.
+while IFS='=' read -r name _; do
+  case "$name" in npm_*|NPM_*|NODE) unset "$name" ;; esac
+done < <(env)
+
 step() { # step NAME LOGFILE CMD...: runs CMD with output to the log, prints the tail on failure
   local name="$1" log="$2"; shift 2
   local t0=$SECONDS
