@@ -1,11 +1,12 @@
 /**
  * The Markdown preview: the core's markdown-it plugin with results looked up from the
  * evaluation service (markdown-it cannot await), and a preview refresh whenever new
- * results arrive. A block is matched by its content and fence line in an evaluated note.
+ * results arrive. A block is matched by its content and fence line in the evaluated note the
+ * preview renders (markdown-it's `env.currentDocument`), falling back to other open notes.
  */
 import type { MarkdownIt } from 'markdown-it';
 import * as vscode from 'vscode';
-import { orbitPlugin, previewBlockOf, type PreviewBlock } from '../compute/render/markdownItPlugin.js';
+import { orbitPlugin, previewBlockOf, type PreviewBlock, type RenderEnv } from '../compute/render/markdownItPlugin.js';
 import { regionStatuses } from '../compute/writeback.js';
 import type { EvaluationService, NoteView } from './service.js';
 
@@ -14,10 +15,11 @@ const REFRESH_DELAY_MS = 100;
 
 /** The plugin `activate` hands to the Markdown extension (`extendMarkdownIt`). */
 export function createPreviewPlugin(service: EvaluationService): (md: MarkdownIt) => MarkdownIt {
-  const lookup = (fenceLine: number, content: string): PreviewBlock | undefined => {
-    const wanted = content.replace(/\r?\n$/, '');
+  const lookup = (fenceLine: number, content: string, env: RenderEnv): PreviewBlock | undefined => {
+    const wanted = sameText(content.replace(/\r?\n$/, ''));
     let best: { block: PreviewBlock; exact: boolean } | undefined;
-    const active = vscode.window.activeTextEditor?.document.uri.toString();
+    // The preview names the document it renders; otherwise prefer the active editor's note.
+    const active = env.currentDocument?.toString() ?? vscode.window.activeTextEditor?.document.uri.toString();
     const views = service.views().sort((a, b) => Number(b.uri.toString() === active) - Number(a.uri.toString() === active));
     for (const view of views) {
       const found = blockIn(view, fenceLine, wanted);
@@ -35,7 +37,7 @@ function blockIn(view: NoteView, fenceLine: number, content: string): { block: P
   const statuses = regionStatuses(evaluation);
   let candidate: { block: PreviewBlock; exact: boolean } | undefined;
   for (const [i, b] of evaluation.blocks.entries()) {
-    if (b.block.content !== content) continue;
+    if (sameText(b.block.content) !== content) continue;
     const exact = view.tracker.map(b.block.fenceLine) === fenceLine;
     const base = previewBlockOf(b, statuses[i]?.state);
     const block: PreviewBlock = view.stale || view.running ? { ...base, status: { text: 'updating…', kind: 'computing' } } : base;
@@ -43,6 +45,14 @@ function blockIn(view: NoteView, fenceLine: number, content: string): { block: P
     candidate ??= { block, exact };
   }
   return candidate;
+}
+
+/**
+ * Block text compared without indentation: markdown-it strips a fence's container prefix
+ * from its content, while the extractor keeps columns by blanking it.
+ */
+function sameText(content: string): string {
+  return content.split(/\r?\n/).map((l) => l.trimStart()).join('\n');
 }
 
 /** Refresh open previews after results change. */

@@ -16,12 +16,18 @@ export interface PreviewBlock {
   readonly status?: HtmlBlockOptions['status'];
 }
 
+/**
+ * markdown-it's render environment. The VS Code preview puts the rendered document's URI
+ * in `currentDocument`, which lets the lookup pick the right note.
+ */
+export interface RenderEnv { readonly currentDocument?: { toString(): string } }
+
 export interface OrbitPluginOptions {
   /**
    * Results for the block whose opening fence is on `fenceLine` (0-based, in the source
    * the preview renders), or undefined when none are available yet.
    */
-  readonly lookup: (fenceLine: number, content: string) => PreviewBlock | undefined;
+  readonly lookup: (fenceLine: number, content: string, env: RenderEnv) => PreviewBlock | undefined;
   /** Shown in place of results that are not available yet. */
   readonly pendingText?: string;
 }
@@ -38,7 +44,7 @@ export function orbitPlugin(md: MarkdownIt, options: OrbitPluginOptions): Markdo
     try {
       token.attrJoin('class', 'orbit-fence');
       const fenceLine = token.map?.[0] ?? -1;
-      const found = options.lookup(fenceLine, token.content);
+      const found = options.lookup(fenceLine, token.content, (env ?? {}) as RenderEnv);
       const attrs = self.renderAttrs(token);
       if (!found) {
         return `<div${attrs}><pre class="orbit-source"><code>${escapeHtml(token.content)}</code></pre><div class="orbit-pending">${escapeHtml(options.pendingText ?? 'results are being computed…')}</div></div>`;
@@ -57,7 +63,7 @@ export function orbitPlugin(md: MarkdownIt, options: OrbitPluginOptions): Markdo
     const hidden: Array<readonly [number, number]> = [];
     for (const b of extractBlocks(state.src)) {
       if (b.region?.endLine === undefined) continue;
-      if (options.lookup(b.fenceLine, `${b.content}\n`) === undefined) continue;
+      if (options.lookup(b.fenceLine, `${b.content}\n`, (state.env ?? {}) as RenderEnv) === undefined) continue;
       hidden.push([b.region.beginLine, b.region.endLine]);
     }
     if (hidden.length === 0) return true;
