@@ -1,20 +1,28 @@
 /**
  * `npm run bench`: every benchmark, printed as a table of figures, baselines measured in
  * the same run, ratios and targets. Pass a name fragment to run only matching suites.
+ * The script bundles this file with esbuild first, so the figures are those of the code
+ * as shipped (not of a TypeScript loader).
  */
-import { readdirSync } from 'node:fs';
-import { join } from 'node:path';
+import * as alignment from './alignment.bench.js';
+import * as conjunctions from './conjunctions.bench.js';
+import * as incremental from './incremental.bench.js';
+import * as periodogram from './periodogram.bench.js';
+import * as relation from './relation.bench.js';
 import type { BenchRow } from './types.js';
+
+const SUITES: ReadonlyArray<readonly [string, () => Promise<BenchRow[]>]> = [
+  ['alignment', alignment.run], ['conjunctions', conjunctions.run], ['incremental', incremental.run],
+  ['periodogram', periodogram.run], ['relation', relation.run],
+];
 
 async function main(): Promise<void> {
   const filter = process.argv[2];
-  const files = readdirSync(__dirname).filter((f) => f.endsWith('.bench.ts') && (!filter || f.includes(filter))).sort();
   let misses = 0;
-  for (const f of files) {
-    const mod = (await import(join(__dirname, f))) as { run?: () => Promise<BenchRow[]> };
-    if (typeof mod.run !== 'function') continue;
-    process.stdout.write(`\n== ${f.replace('.bench.ts', '')}\n`);
-    const rows = await mod.run();
+  for (const [name, run] of SUITES) {
+    if (filter && !name.includes(filter)) continue;
+    process.stdout.write(`\n== ${name}\n`);
+    const rows = await run();
     for (const r of rows) {
       const base = r.baseline !== undefined ? `  baseline ${fmt(r.baseline)} ${r.unit}` : '';
       const ratio = r.ratio !== undefined ? `  ratio ${fmt(r.ratio)}×` : '';

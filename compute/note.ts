@@ -114,6 +114,8 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
   const limits = init.limits ?? DEFAULT_LIMITS;
   const cacheSize = init.cacheSize ?? 4000;
   let cache = new Map<string, Cached>();
+  // Region bodies by block inputs digest and diagnostics: equal inputs render to equal text.
+  let regionBodies = new Map<string, string>();
 
   async function evaluate(text: string, options: EvaluateOptions = {}): Promise<NoteEvaluation> {
     const lines = splitLines(text);
@@ -127,6 +129,7 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
     const settingsKey = `calendar=${settings.calendar};seed=${settings.seed};${ENGINE_LABEL};orbit-notes ${ORBIT_NOTES_VERSION}`;
     const scope = new Map<string, Binding>();
     const nextCache = new Map<string, Cached>();
+    const nextRegionBodies = new Map<string, string>();
     const total = parsed.reduce((n, p) => n + p.statements.length, 0);
     let done = 0;
     let evaluated = 0;
@@ -204,7 +207,11 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
         block: p.block, statements: stmtEvals, inputsDigest, regionBody: '',
         diagnostics: [...p.diagnostics, ...stmtEvals.flatMap((s) => s.diagnostics), ...regionDiagnostics],
       };
-      blockEvals.push({ ...partial, regionBody: renderRegionBody(partial, settings) });
+      // Diagnostics can change with equal inputs (a name defined twice elsewhere), so they key it too.
+      const bodyKey = `${inputsDigest}|${partial.diagnostics.map((d) => `${d.code} ${d.message}`).join('\n')}`;
+      const regionBody = regionBodies.get(bodyKey) ?? renderRegionBody(partial, settings);
+      nextRegionBodies.set(bodyKey, regionBody);
+      blockEvals.push({ ...partial, regionBody });
     }
     // Keep the entries of this evaluation plus the most recent older ones, so that undo
     // and toggling an edit back do not recompute.
@@ -213,6 +220,7 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
       if (!nextCache.has(k)) nextCache.set(k, v);
     }
     cache = nextCache;
+    regionBodies = nextRegionBodies;
     return {
       blocks: blockEvals,
       diagnostics: [...noteDiagnostics, ...blockEvals.flatMap((b) => b.diagnostics)],
@@ -294,7 +302,7 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
     }
   }
 
-  return { evaluate, clearCache: () => { cache = new Map(); } };
+  return { evaluate, clearCache: () => { cache = new Map(); regionBodies = new Map(); } };
 }
 
 function notAvailable(stmt: Statement, line: number, stmtDigest: string): Cached {
