@@ -180,8 +180,10 @@ async function runOnce() {
     try {
       await screenshotPreview(page, authority, payload, args.screenshot);
     } catch (err) {
+      // The picture is for a person to look at, not a test: a slow workbench (a cold
+      // machine, a busy CI core) must not fail a run whose tests passed.
       await page.screenshot({ path: path.join(logDir, 'screenshot-failure.png') }).catch(() => {});
-      return { ...counts, reason: `screenshot: ${err instanceof Error ? err.message.split('\n')[0] : String(err)}` };
+      console.log(`warning: no screenshot taken (${err instanceof Error ? err.message.split('\n')[0] : String(err)}); the page as it was is in ${path.join(logDir, 'screenshot-failure.png')}`);
     }
   }
   return { ...counts, reason: '' };
@@ -204,11 +206,11 @@ async function screenshotPreview(page, authority, payload, file) {
   const quickInput = page.locator('.quick-input-widget');
   const pick = async (keys, text, rowText) => {
     await page.keyboard.press(keys);
-    await quickInput.locator('input').waitFor({ state: 'visible', timeout: 15_000 });
+    await quickInput.locator('input').waitFor({ state: 'visible', timeout: 45_000 });
     await page.keyboard.type(text);
-    await quickInput.locator('.monaco-list-row', { hasText: rowText }).first().waitFor({ timeout: 15_000 });
+    await quickInput.locator('.monaco-list-row', { hasText: rowText }).first().waitFor({ timeout: 45_000 });
     await page.keyboard.press('Enter');
-    await quickInput.waitFor({ state: 'hidden', timeout: 15_000 });
+    await quickInput.waitFor({ state: 'hidden', timeout: 45_000 });
   };
   await pick('Control+P', path.relative(folder, note), path.basename(note));
   await page.locator(`.tabs-container .tab[aria-label*="${path.basename(note)}"]`).first().waitFor({ timeout: 30_000 });
