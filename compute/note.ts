@@ -143,12 +143,12 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
       const claimFailedBefore = (line: number): void => {
         while (failedByLine.length > 0 && failedByLine[0]!.range.start.line < line) {
           const f = failedByLine.shift()!;
-          if (!scope.has(f.definedName!)) scope.set(f.definedName!, { kind: 'failed', digest: digest('failed', sourceOf(lines, f.range)), line: f.range.start.line });
+          if (!scope.has(f.definedName!)) scope.set(f.definedName!, { kind: 'failed', digest: digest('failed', sourceOf(p.block, f.range), `@${f.range.start.line}`), line: f.range.start.line });
         }
       };
       for (const stmt of p.statements) {
         claimFailedBefore(stmt.range.start.line);
-        const source = sourceOf(lines, stmt.range);
+        const source = sourceOf(p.block, stmt.range);
         const refs = referencedNames(stmt);
         const refKey = refs.map((r) => `${r}=${scope.get(r)?.digest ?? (isBuiltin(r) ? 'builtin' : 'undefined')}`).join(',');
         let fileKey = '';
@@ -188,7 +188,12 @@ export function createNoteEvaluator(init: NoteEvaluatorInit = {}): NoteEvaluator
             stmtEvals.push({ statement: stmt, source, diagnostics: [d], digest: stmtDigest, reused: false });
             continue;
           }
-          if (entry.binding) scope.set(definedName.name, { ...entry.binding, line: stmt.range.start.line });
+          if (entry.binding) {
+            const line = stmt.range.start.line;
+            // Messages of dependents name a failed definition's line, so its position is part of its digest.
+            const bound = entry.binding.kind === 'failed' ? { ...entry.binding, digest: digest(entry.binding.digest, `@${line}`) } : entry.binding;
+            scope.set(definedName.name, { ...bound, line });
+          }
         }
         stmtEvals.push({
           statement: stmt, source, diagnostics, digest: stmtDigest, reused: wasCached,
@@ -486,9 +491,12 @@ function setResult(stmt: Extract<Statement, { kind: 'set' }>): StatementResult {
   };
 }
 
-/** The statement's text as written: from its first to its last line, whole lines. */
-function sourceOf(lines: readonly string[], range: Range): string {
-  return lines.slice(range.start.line, range.end.line + 1).join('\n');
+/**
+ * The statement's text as written: from its first to its last line, whole lines, taken
+ * from the block's content (so a quote's `>` or a list's indentation is not part of it).
+ */
+function sourceOf(block: ExtractedBlock, range: Range): string {
+  return block.content.split('\n').slice(range.start.line - block.contentStartLine, range.end.line - block.contentStartLine + 1).join('\n');
 }
 
 function lineRange(lines: readonly string[], line: number): Range {

@@ -104,7 +104,9 @@ export function planWrite(text: string, evaluation: NoteEvaluation, options: { r
     const b = evaluation.blocks[s.blockIndex]!;
     if (s.state === 'current') continue;
     if (s.state === 'unclosed' || s.state === 'damaged' || (s.state === 'edited' && !options.force)) { skipped.push(s); continue; }
-    const body = s.expected.split('\n').join(eol);
+    // Inside a list item or a quote, every region line carries the container's prefix.
+    const prefix = b.block.prefix;
+    const body = s.expected.split('\n').map((l) => (prefix === '' ? l : l === '' ? prefix.trimEnd() : prefix + l)).join(eol);
     const r = b.block.region;
     if (r && r.endLine !== undefined) {
       // Replace from the begin marker to the end of the end marker's text (its line break stays).

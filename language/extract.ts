@@ -29,6 +29,12 @@ export interface Region {
 export interface ExtractedBlock extends Block {
   /** Columns the opening fence is indented by. `content` keeps document columns already. */
   readonly indent: number;
+  /**
+   * What each line of the block's container starts with: spaces for a list item or an
+   * indented fence, `> ` in a block quote. The results region is written with it, so it
+   * stays inside the same container.
+   */
+  readonly prefix: string;
   readonly region?: Region;
   /** A begin marker without an end marker, or other region damage. */
   readonly regionProblem?: string;
@@ -58,10 +64,12 @@ export function extractBlocks(text: string): ExtractedBlock[] {
     const fenceLineText = lines[start] ?? '';
     const indent = fenceLineText.length - fenceLineText.trimStart().length;
     // markdown-it's map ends after the closing fence; an unclosed fence runs to the end.
-    const lastLine = endExclusive - 1;
-    const closeText = (lines[lastLine] ?? '').trim();
-    const closed = lastLine > start && /^(`{3,}|~{3,})\s*$/.test(closeText) && closeText[0] === t.markup[0] && closeText.length >= t.markup.length;
-    const closeLine = closed ? lastLine : lastLine;
+    const closeLine = endExclusive - 1;
+    // The container prefix of the fence: indentation, `> ` of a quote; list markers become spaces.
+    const markerAt = fenceLineText.indexOf(t.markup);
+    const prefix = (markerAt > 0 ? fenceLineText.slice(0, markerAt) : '').replace(/[^\s>]/g, ' ');
+    const closeText = (lines[closeLine] ?? '').replace(/^[\s>]*/, '').trimEnd();
+    const closed = closeLine > start && /^(`{3,}|~{3,})$/.test(closeText) && closeText[0] === t.markup[0] && closeText.length >= t.markup.length;
     // Keep document columns: each content line is the source line with its container
     // prefix (fence indentation, list indentation, `> ` of a block quote) blanked out, so
     // every range the parser reports is a true document position.
@@ -82,6 +90,7 @@ export function extractBlocks(text: string): ExtractedBlock[] {
       content,
       index: out.length,
       indent,
+      prefix,
       ...(closed ? {} : { regionProblem: 'unclosed' }),
     };
     out.push(closed ? withRegion(block, lines) : block);
@@ -89,25 +98,36 @@ export function extractBlocks(text: string): ExtractedBlock[] {
   return out;
 }
 
-function withRegion(block: ExtractedBlock, lines: readonly string[]): ExtractedBlock {
+function withRegion(block: ExtractedBlock, allLines: readonly string[]): ExtractedBlock {
+  // Lines of the block's container without its prefix; undefined once the container ends.
+  const p = block.prefix;
+  const line = (i: number): string | undefined => {
+    const l = allLines[i];
+    if (l === undefined || p === '') return l;
+    if (l.startsWith(p)) return l.slice(p.length);
+    if (l === p.trimEnd()) return '';
+    return undefined;
+  };
   // The region starts on the line right after the closing fence, or after one blank line.
   let i = block.closeLine + 1;
-  if ((lines[i] ?? '').trim() === '' && (lines[i + 1] ?? '').startsWith(REGION_BEGIN_PREFIX)) i += 1;
-  const beginText = lines[i] ?? '';
+  if ((line(i) ?? 'x').trim() === '' && (line(i + 1) ?? '').startsWith(REGION_BEGIN_PREFIX)) i += 1;
+  const beginText = line(i) ?? '';
   if (!beginText.startsWith(REGION_BEGIN_PREFIX) || END_RE.test(beginText)) return block;
   const m = BEGIN_RE.exec(beginText);
   if (!m) return { ...block, regionProblem: `the results marker on line ${i + 1} is damaged; delete the region and write results again` };
   let end: number | undefined;
-  for (let j = i + 1; j < lines.length; j++) {
-    const l = lines[j]!;
+  const body: string[] = [];
+  for (let j = i + 1; j < allLines.length; j++) {
+    const l = line(j);
+    if (l === undefined) break;
     if (END_RE.test(l)) { end = j; break; }
     if (l.startsWith(REGION_BEGIN_PREFIX) || /^(`{3,}|~{3,})\s*orbit\b/.test(l.trim())) break;
+    body.push(l);
   }
   if (end === undefined) {
     return { ...block, regionProblem: `the results region starting on line ${i + 1} has no end marker \`${REGION_END}\`` };
   }
-  const body = lines.slice(i + 1, end).join('\n');
-  return { ...block, region: { beginLine: i, endLine: end, inputsDigest: m[1]!, bodyDigest: m[2]!, body } };
+  return { ...block, region: { beginLine: i, endLine: end, inputsDigest: m[1]!, bodyDigest: m[2]!, body: body.join('\n') } };
 }
 
 /** The begin marker line for given digests. */

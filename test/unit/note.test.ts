@@ -1,6 +1,5 @@
 import { strict as assert } from 'node:assert';
 import { createNoteEvaluator, FileAccessError, type NoteEvaluation } from '../../compute/note.js';
-import { sigmaOf } from '../../compute/quantity.js';
 
 const fence = (body: string, name = ''): string => `\`\`\`orbit${name ? ` ${name}` : ''}\n${body}\n\`\`\``;
 
@@ -101,16 +100,28 @@ describe('note evaluation', () => {
   it('gives a user body a period, its mean motion and uncertainty', async () => {
     const e = await createNoteEvaluator().evaluate(fence('body inner period 5.0931 d ± 0.0004 d'));
     const r = stmts(e)[0]!.result!;
-    assert.match(r.summary, /70\.68\d* ± 0\.0056 deg\/d|mean motion/);
+    // Mean motion n = 360°/P = 70.684 deg/d, σ_n = n·σ_P/P = 0.0056 deg/d (first order; common practice).
+    assert.match(r.summary, /mean motion 70\.6839 ± 0\.0056 deg\/d/);
     assert.equal(r.value!.uncertainty, 0.0004);
   });
 
-  it('computes uncertainties that match sigmaOf for a ratio of measured periods', async () => {
+  it('computes uncertainties of a ratio of measured periods as the GUM quotient rule says', async () => {
     const e = await createNoteEvaluator().evaluate(fence('let a = 7.6512 d ± 0.0006 d\nlet b = 5.0931 d ± 0.0004 d\nlet r = a / b'));
     const r = stmts(e)[2]!.result!.value!;
     // First-order: σ_r/r = √((σa/a)² + (σb/b)²) (JCGM 100:2008, eq. 12 for a quotient).
-    const rel = Math.hypot(0.0006 / 7.6512, 0.0004 / 5.0931);
-    assert.ok(Math.abs(r.uncertainty - r.number * rel) < 1e-12);
-    assert.ok(sigmaOf !== undefined);
+    const expected = r.number * Math.hypot(0.0006 / 7.6512, 0.0004 / 5.0931);
+    const toleranceRelative = 1e-12;
+    const error = Math.abs(r.uncertainty - expected) / expected;
+    assert.ok(error < toleranceRelative, `relative error ${error}`);
+  });
+
+  it('names the new line of a failed definition after lines are inserted above it', async () => {
+    const ev = createNoteEvaluator();
+    const body = 'let p = 3 d + 1 deg\nlet q = p * 2';
+    await ev.evaluate(fence(body));
+    const moved = await ev.evaluate(`# a\n\n${fence(body)}`);
+    const dep = moved.diagnostics.find((d) => d.code === 'OB205');
+    assert.ok(dep);
+    assert.match(dep.message, /line 4/);
   });
 });

@@ -78,6 +78,16 @@ describe('writing results back', () => {
     assert.equal(extractBlocks(out).length, 2);
   });
 
+  it('writes a region inside the list item or quote that holds the block, and finds it again', async () => {
+    const text = '- item\n\n  ```orbit\n  let b = 2 d\n  ```\n\n  more item text\n- next\n\n> ```orbit\n> let c = 3 d\n> ```\n';
+    const out = await write(text);
+    assert.match(out, /\n {2}<!-- orbit results · [^\n]*\n {2}- `let b = 2 d` → b = 2 d\n/);
+    assert.match(out, /\n> <!-- orbit results · [^\n]*\n> - `let c = 3 d` → c = 3 d\n/);
+    assert.match(out, /\n {2}<!-- orbit results end -->\n\n {2}more item text\n- next\n/);
+    assert.deepEqual(regionStatuses(await evaluate(out)).map((s) => s.state), ['current', 'current']);
+    assert.equal(await write(out), out);
+  });
+
   it('keeps all text outside regions byte-identical and is idempotent, for random notes (property)', async () => {
     const prose = fc.stringMatching(/^[a-zA-Z0-9 #*|`<>!\-.\r\n]{0,60}$/);
     const stmt = fc.constantFrom('let a1 = 3 d', 'date 2000-01-01', 'let bad = 1 d + 1 deg', 'synodic 10 d 12 d', 'nonsense here', '', '# comment');
