@@ -17,7 +17,7 @@ export function findWorkspace(notePath: string): string {
 /** Is `child` the folder `root` or inside it (both real paths)? */
 export function isInside(root: string, child: string): boolean {
   const rel = relative(root, child);
-  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel) && !rel.startsWith(`..${sep}`));
+  return rel === '' || (rel !== '..' && !rel.startsWith(`..${sep}`) && !isAbsolute(rel));
 }
 
 export const MAX_DATA_FILE_BYTES = 64 * 1024 * 1024;

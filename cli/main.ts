@@ -5,8 +5,9 @@
  *   orbit-notes write PATHS… [--force]
  *   orbit-notes check PATHS…
  *
- * Exit codes: 0 fine; 1 `check` found regions missing, stale or edited; 2 usage error or
- * a note with errors.
+ * Exit codes: 0 fine; 1 `check` found regions missing, stale or edited, or `write` left a
+ * region alone (edited by hand, damaged, or the note changed meanwhile); 2 usage error or a
+ * note with errors.
  */
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
@@ -59,9 +60,9 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
     throw new UsageError(command ? `unknown command \`${command}\`` : 'no command given');
   }
   const o: Options = { command, paths: [], json: false, summary: false, force: false, limits: { ...DEFAULT_LIMITS } };
-  const num = (flag: string, v: string | undefined): number => {
+  const num = (flag: string, v: string | undefined, whole = true): number => {
     const n = Number(v);
-    if (v === undefined || !Number.isFinite(n) || n <= 0) throw new UsageError(`${flag} needs a positive number`);
+    if (v === undefined || !Number.isFinite(n) || n <= 0 || (whole && !Number.isInteger(n))) throw new UsageError(`${flag} needs a positive ${whole ? 'whole ' : ''}number`);
     return n;
   };
   for (let i = 0; i < rest.length; i++) {
@@ -73,7 +74,7 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
       case '-o': case '--output': { const v = rest[++i]; if (!v) throw new UsageError(`${a} needs a file name`); o.output = v; break; }
       case '--workspace': { const v = rest[++i]; if (!v) throw new UsageError('--workspace needs a folder'); o.workspace = v; break; }
       case '--max-evaluations': o.limits = { ...o.limits, maxEvaluations: num(a, rest[++i]) }; break;
-      case '--max-span-years': o.limits = { ...o.limits, maxSpanDays: num(a, rest[++i]) * 365.25 }; break;
+      case '--max-span-years': o.limits = { ...o.limits, maxSpanDays: num(a, rest[++i], false) * 365.25 }; break;
       case '--max-trials': o.limits = { ...o.limits, maxTrials: num(a, rest[++i]) }; break;
       default:
         if (a.startsWith('--')) throw new UsageError(`unknown option \`${a}\``);
@@ -85,6 +86,7 @@ function parseArgs(argv: readonly string[]): Options | 'help' | 'version' {
   if (o.force && command !== 'write') throw new UsageError('--force goes with `write`');
   if (command === 'html' && (o.paths.length !== 1 || !o.output)) throw new UsageError('`html` takes one note and -o FILE.html');
   if (o.output && command !== 'html') throw new UsageError('-o goes with `html`');
+  if (o.output && !/\.html?$/i.test(o.output)) throw new UsageError('the page is written to a .html file (so that a note is never overwritten)');
   return o;
 }
 
@@ -196,14 +198,16 @@ export async function main(argv: readonly string[]): Promise<number> {
       const now = readFileSync(path, 'utf8');
       if (now !== r.text) {
         process.stderr.write(`${r.display}: changed while its results were computed; not written (run again)\n`);
-        code = Math.max(code, 1);
+        code = Math.max(code, 1);  // 1: not every region was written
         continue;
       }
       if (plan.edits.length > 0) writeFileAtomic(path, plan.text);
       const changed = plan.edits.length;
       const current = plan.statuses.filter((s) => s.state === 'current').length;
       process.stdout.write(`${r.display}: ${changed} region${changed === 1 ? '' : 's'} written, ${current} already current${plan.skipped.length ? `, ${plan.skipped.length} left alone` : ''}\n`);
-      for (const s of plan.skipped) process.stderr.write(`${pos(r, s.fenceLine, 0)}: warning ${s.state === 'edited' ? 'OB502' : 'OB504'}: ${s.message}\n`);
+      const skipCode: Record<string, string> = { edited: 'OB502', damaged: 'OB502', unclosed: 'OB110' };
+      for (const s of plan.skipped) process.stderr.write(`${pos(r, s.fenceLine, 0)}: warning ${skipCode[s.state] ?? 'OB504'}: ${s.message}\n`);
+      if (plan.skipped.length > 0) code = Math.max(code, 1);  // 1: not every region was written
       printDiagnostics(r);
     } else {
       const statuses = regionStatuses(r.evaluation);

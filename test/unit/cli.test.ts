@@ -66,6 +66,15 @@ describe('the orbit-notes command line', function () {
     assert.ok(Math.abs(p.value!.uncertainty - 0.0008) < 1e-12);
   });
 
+  it('refuses to write a page over anything but an .html file, so a note cannot be overwritten', () => {
+    writeFileSync(join(dir, 'n.md'), note);
+    const r = cli(['html', 'n.md', '-o', 'n.md'], dir);
+    assert.equal(r.code, 2);
+    assert.equal(readFileSync(join(dir, 'n.md'), 'utf8'), note);
+    assert.equal(cli(['html', 'n.md', '-o', 'n.html'], dir).code, 0);
+    assert.match(readFileSync(join(dir, 'n.html'), 'utf8'), /<!DOCTYPE html>[\s\S]*Content-Security-Policy[\s\S]*orbit-summary/);
+  });
+
   it('exits 2 with the usage on an unknown command or option', () => {
     assert.equal(cli(['frobnicate'], dir).code, 2);
     const r = cli(['run', '--bogus', 'x.md'], dir);
@@ -94,7 +103,8 @@ describe('the orbit-notes command line', function () {
     const edited = written.replace('10.1862', '99.9999');
     writeFileSync(join(dir, 'n.md'), edited);
     const w = cli(['write', 'n.md'], dir);
-    assert.match(w.stderr, /edited by hand/);
+    assert.match(w.stderr, /warning OB502: .*edited by hand/);
+    assert.equal(w.code, 1, 'a region left alone is not a clean write');
     assert.equal(readFileSync(join(dir, 'n.md'), 'utf8'), edited);
     assert.equal(cli(['check', 'n.md'], dir).code, 1);
     cli(['write', 'n.md', '--force'], dir);
