@@ -214,7 +214,11 @@ async function screenshotPreview(page, authority, payload, file) {
   };
   await pick('Control+P', path.relative(folder, note), path.basename(note));
   await page.locator(`.tabs-container .tab[aria-label*="${path.basename(note)}"]`).first().waitFor({ timeout: 30_000 });
-  await pick('F1', 'Markdown: Open Preview to the Side', 'Open Preview to the Side');
+  // Open the preview with its keyboard chord (Ctrl+K V) from the focused editor; the command
+  // palette does not always list the command on a fresh profile before the editor has focus.
+  await page.locator('.monaco-editor .view-lines').first().click();
+  await page.keyboard.press('Control+K');
+  await page.keyboard.press('v');
   const frame = page.frameLocator('iframe.webview.ready').frameLocator('iframe#active-frame');
   // The preview is ready when the note's first heading or paragraph is in it.
   await frame.locator('body.vscode-body :is(h1, h2, p)').first().waitFor({ timeout: 30_000 });
