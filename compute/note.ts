@@ -468,10 +468,10 @@ function letResult(name: string, value: Quantity, source: string): StatementResu
 function bodyResult(body: ResolvedBody): StatementResult {
   const p = body.period!;
   const n = reciprocal(p);
-  const degPerDay = { value: n.value * 2 * Math.PI, dim: 'angular-rate' as const, contrib: new Map([...n.contrib].map(([k, c]) => [k, c * 2 * Math.PI])) };
+  const meanMotionRadPerDay = { value: n.value * 2 * Math.PI, dim: 'angular-rate' as const, contrib: new Map([...n.contrib].map(([k, c]) => [k, c * 2 * Math.PI])) };
   return {
     kind: 'body',
-    summary: `${body.name}: period ${formatQuantity(p)}, mean motion ${formatQuantity(degPerDay)}`,
+    summary: `${body.name}: period ${formatQuantity(p)}, mean motion ${formatQuantity(meanMotionRadPerDay)}`,
     details: ['A user body has a period (and optionally a mass) but no ephemeris: position searches need a built-in body.'],
     tables: [],
     provenance: { libraries: [`orbit-notes ${ORBIT_NOTES_VERSION}`] },

@@ -15,6 +15,7 @@ import {
 import { ENGINE_LABEL, ORBIT_NOTES_VERSION } from '../provenance.js';
 import type { EventRecord, PlotSpec, StatementResult, Table } from '../result.js';
 import { deltaTSeconds, formatUtcMinutes, instantFromTt, isoUtc, jdTt } from '../time.js';
+import { SOLAR_CAUTION, SOLAR_CAUTION_DEG } from './conjunctions.js';
 import { formatDeltaT } from './date.js';
 
 type AlignmentStmt = Extract<Statement, { kind: 'alignment' }>;
@@ -22,8 +23,8 @@ type AlignmentStmt = Extract<Statement, { kind: 'alignment' }>;
 const DEG = Math.PI / 180;
 const YEAR_DAYS = 365.25;
 
-/** Elongation below which a geocentric window carries the solar-filter caution, radians (common practice). */
-export const SOLAR_CAUTION_ELONGATION_RAD = 15 * DEG;
+/** Elongation below which a geocentric window carries the solar-filter caution (the same threshold as conjunctions). */
+const SOLAR_CAUTION_ELONGATION_RAD = SOLAR_CAUTION_DEG * DEG;
 
 /** Points of the spread curve drawn in the plot, besides the window edges and minima. */
 const PLOT_SAMPLES = 600;
@@ -193,7 +194,7 @@ export function evalAlignment(stmt: AlignmentStmt, ctx: EvalContext): StatementR
   if (seenFrom === 'earth') {
     const near = windows.map((_, i) => i).filter((i) => (elongations[i] ?? Math.PI) < SOLAR_CAUTION_ELONGATION_RAD);
     if (near.length > 0) {
-      cautions.push(`In ${near.length === 1 ? 'window' : 'windows'} ${near.slice(0, 12).map((i) => `#${i + 1}`).join(', ')}${near.length > 12 ? ' …' : ''} a body stands within ${fmtDeg(SOLAR_CAUTION_ELONGATION_RAD, 0)} of the Sun: never point binoculars or a telescope near the Sun without a proper solar filter, and do not look for these bodies in daylight with optics.`);
+      cautions.push(`In ${near.length === 1 ? 'window' : 'windows'} ${near.slice(0, 12).map((i) => `#${i + 1}`).join(', ')}${near.length > 12 ? ' …' : ''} a body stands within ${fmtDeg(SOLAR_CAUTION_ELONGATION_RAD, 0)} of the Sun. ${SOLAR_CAUTION}`);
     }
   } else {
     cautions.push('Heliocentric longitudes describe the geometry seen from the Sun, not what an observer on Earth sees.');
