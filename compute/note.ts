@@ -439,7 +439,10 @@ function userBody(stmt: Extract<Statement, { kind: 'body' }>, ctx: EvalContext):
   const p = ctx.value(stmt.period);
   let period: Quantity;
   if (p.dim === 'time') period = p;
-  else if (p.dim === 'frequency') period = reciprocal(p);
+  else if (p.dim === 'frequency') {
+    if (!(p.value > 0)) fail(Code.OutOfRange, 'a frequency must be positive to give a period', stmt.period.range);
+    period = reciprocal(p);
+  }
   else if (p.dim === 'none') fail(Code.MissingUnit, 'a period needs a unit: write e.g. `7.3845 d`', stmt.period.range);
   else fail(Code.DimensionMismatch, `a period is a time (or a frequency), got ${describeDim(p.dim)}`, stmt.period.range);
   if (!(period.value > 0)) fail(Code.OutOfRange, 'a period must be positive', stmt.period.range);
