@@ -98,9 +98,22 @@ export function spanCautions(start: Instant, end: Instant, bodies: readonly Posi
   return { cautions, validity: warn?.message };
 }
 
-/** The accuracy note as a warning diagnostic too (the Problems panel), not only as a caution. */
-export function accuracyWarnings(validity: string | undefined): Pick<StatementResult, 'warnings'> {
-  return validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {};
+/**
+ * The result of an event search: its text parts plus provenance over the events found and
+ * the accuracy note, which is also a warning diagnostic (the Problems panel), not only a caution.
+ */
+export function searchResult(
+  kind: 'conjunctions' | 'oppositions',
+  text: Pick<StatementResult, 'summary' | 'details' | 'tables' | 'cautions'>,
+  frame: string, instants: readonly Instant[], events: readonly EventRecord[], start: Instant, end: Instant, validity: string | undefined,
+): StatementResult {
+  return {
+    kind,
+    ...text,
+    provenance: searchProvenance(frame, instants, start, end, validity),
+    events,
+    ...(validity ? { warnings: [{ code: Code.EphemerisAccuracy, message: validity }] } : {}),
+  };
 }
 
 /** Map the search's failures to diagnostics at the statement; limits and cancellation pass through. */
@@ -218,16 +231,7 @@ export function evalConjunctions(stmt: ConjunctionsStmt, ctx: EvalContext): Stat
   ];
 
   const records: EventRecord[] = events.map((e) => eventRecord(e, mode));
-  return {
-    kind: 'conjunctions',
-    summary,
-    details,
-    tables,
-    provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
-    cautions,
-    events: records,
-    ...accuracyWarnings(validity),
-  };
+  return searchResult('conjunctions', { summary, details, tables, cautions }, found.frame, events.map((e) => e.instant), records, start, end, validity);
 }
 
 function eventRecord(e: ConjunctionEvent, mode: CalendarMode): EventRecord {

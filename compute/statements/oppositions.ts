@@ -9,8 +9,8 @@ import { fail, type EvalContext } from '../context.js';
 import type { EventRecord, StatementResult, Table } from '../result.js';
 import { formatUtcMinutes, isoUtc, jdTt } from '../time.js';
 import {
-  formatAngle, formatInterval, formatJdTt, formatLon, positionBody, searchFailure, searchProvenance,
-  accuracyWarnings, spanCautions, spanInstants, summaryTable,
+  formatAngle, formatInterval, formatJdTt, formatLon, positionBody, searchFailure,
+  searchResult, spanCautions, spanInstants, summaryTable,
 } from './conjunctions.js';
 import { intervalStats } from '../synodic.js';
 
@@ -73,14 +73,5 @@ export function evalOppositions(stmt: OppositionsStmt, ctx: EvalContext): Statem
     utc: isoUtc(e.instant, mode),
     fields: { longitude_deg: e.lonRad / DEG, latitude_deg: e.latRad / DEG, distance_au: e.distanceAu, elongation_deg: e.elongationRad / DEG },
   }));
-  return {
-    kind: 'oppositions',
-    summary,
-    details,
-    tables,
-    provenance: searchProvenance(found.frame, events.map((e) => e.instant), start, end, validity),
-    cautions,
-    events: records,
-    ...accuracyWarnings(validity),
-  };
+  return searchResult('oppositions', { summary, details, tables, cautions }, found.frame, events.map((e) => e.instant), records, start, end, validity);
 }
