@@ -4,7 +4,7 @@ import { Code, suggest } from '../language/diagnostics.js';
 import { fail, type ResolvedBody } from './context.js';
 import { synodicPeriod } from './synodic.js';
 import {
-  abs, add, describeDim, DimensionError, div, lookupUnit, measured, mul, neg, newInputId, reciprocal, exact, type Quantity,
+  abs, add, describeDim, DimensionError, div, lookupUnit, measured, mul, neg, reciprocal, exact, type Quantity,
 } from './quantity.js';
 
 export interface ExprScope {
@@ -132,4 +132,3 @@ function synodicAt(pa: Quantity, pb: Quantity, range: Expr['range']): Quantity {
   }
 }
 
-export { newInputId };

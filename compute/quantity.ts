@@ -72,14 +72,6 @@ export function lookupUnit(spelling: string): UnitDef | undefined {
   return undefined;
 }
 
-let nextInputId = 0;
-
-/** A fresh identifier for an independent input (used as a key of `contrib`). */
-export function newInputId(label: string): string {
-  nextInputId += 1;
-  return `${label}#${nextInputId}`;
-}
-
 /** An exact quantity (no uncertainty) in base units. */
 export function exact(value: number, dim: Dimension): Quantity {
   return { value, dim, contrib: new Map() };
